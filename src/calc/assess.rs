@@ -1,0 +1,386 @@
+//! Assessment of a whole tank: every method of methods.md s.3, s.4 and s.6 applied to
+//! each course, then the tank-level verdict.
+//!
+//! Order of work (each step is a function of the modules beside this one):
+//! 1. group readings by course and survey date, reduce each group (survey.rs);
+//! 2. per course: S (stress.rs), t_min and H_max (shell.rs), rates (rates.rs),
+//!    remaining life, status and intervals (life.rs);
+//! 3. tank: the least UT and external intervals over courses with a known rate
+//!    (API 653 6.3), due dates from the latest survey, the governing course (least
+//!    remaining life, the lower course on a tie), the allowable liquid level now and
+//!    after the UT interval at each course's governing rate;
+//! 4. points: per-location rates and the hot spots (points.rs).
+
+use std::collections::BTreeMap;
+
+use chrono::NaiveDate;
+
+use super::life::{
+    IntervalBasis, IntervalKind, RemainingLife, add_years, interval, remaining_life, status,
+};
+use super::points::{PointHistory, hot_spots, point_result};
+use super::rates::{BasisPoint, governing_rate, long_term, regression, short_term};
+use super::shell::{CourseLoad, max_fill_height, whole_course_t_min};
+use super::stress::in_service_stress;
+use super::survey::{CourseSurvey, course_survey, suspect_reading};
+use super::units::{Length, Thickness};
+use crate::calc::life::Status;
+use crate::model::reading::ReadingSet;
+use crate::model::result::{
+    Assessment, CourseCondition, CourseResult, FillLimit, Overrides, SurveyInfo, TankInterval,
+    TankSummary,
+};
+use crate::model::tank::Tank;
+use crate::model::warning::{Shown, Warning};
+
+/// What-if values and the assessment date.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct AssessOptions {
+    /// Use only surveys up to this date.
+    pub as_of: Option<NaiveDate>,
+    /// Specific gravity instead of the tank file's.
+    pub specific_gravity: Option<f64>,
+    /// Maximum liquid level instead of the tank file's.
+    pub fill_height: Option<Length>,
+}
+
+/// Why a tank cannot be assessed at all.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum AssessError {
+    /// No readings at all.
+    #[error("no thickness readings: put survey files (*.csv) in the tank's surveys/ folder")]
+    NoReadings,
+    /// No readings up to the as-of date.
+    #[error("no survey on or before {as_of} (--as-of); the earliest survey is {earliest}")]
+    NoneBeforeAsOf {
+        /// The as-of date.
+        as_of: NaiveDate,
+        /// The earliest survey.
+        earliest: NaiveDate,
+    },
+}
+
+/// Assesses `tank` from `readings`.
+pub fn assess(
+    tank: &Tank,
+    readings: &ReadingSet,
+    options: AssessOptions,
+) -> Result<Assessment, AssessError> {
+    let mut tank = tank.clone();
+    let mut overrides = Overrides::default();
+    if let Some(g) = options.specific_gravity {
+        overrides.specific_gravity_from_file = Some(tank.specific_gravity);
+        tank.specific_gravity = g;
+    }
+    if let Some(h) = options.fill_height {
+        overrides.fill_height_from_file = Some(tank.max_fill_height);
+        tank.max_fill_height = h;
+    }
+    let units = tank.units;
+    let mut warnings = Vec::new();
+
+    // 1. Readings up to the as-of date, grouped by course and date.
+    let earliest = readings.readings.iter().map(|r| r.date).min();
+    let used: Vec<_> = readings
+        .readings
+        .iter()
+        .filter(|r| options.as_of.is_none_or(|d| r.date <= d))
+        .collect();
+    let excluded = readings.readings.len() - used.len();
+    let latest_survey = match (used.iter().map(|r| r.date).max(), options.as_of, earliest) {
+        (Some(d), _, _) => d,
+        (None, Some(as_of), Some(earliest)) => {
+            return Err(AssessError::NoneBeforeAsOf { as_of, earliest });
+        }
+        _ => return Err(AssessError::NoReadings),
+    };
+    let as_of = options.as_of.unwrap_or(latest_survey);
+    if excluded > 0 {
+        warnings.push(Warning::ReadingsAfterAsOf {
+            count: excluded,
+            as_of,
+        });
+    }
+    let mut by_course_date: BTreeMap<(u32, NaiveDate), Vec<f64>> = BTreeMap::new();
+    let mut by_point: BTreeMap<(u32, &str), PointHistory> = BTreeMap::new();
+    let mut per_date: BTreeMap<NaiveDate, usize> = BTreeMap::new();
+    for r in &used {
+        by_course_date
+            .entry((r.course, r.date))
+            .or_default()
+            .push(r.thickness.0);
+        *per_date.entry(r.date).or_default() += 1;
+        if let Some(id) = r.point.as_deref() {
+            let h = by_point.entry((r.course, id)).or_insert_with(|| PointHistory {
+                point: id.to_string(),
+                course: r.course,
+                readings: Vec::new(),
+                elevation: None,
+                azimuth: None,
+            });
+            h.readings.push((r.date, r.thickness));
+            if h.readings.iter().all(|(d, _)| *d <= r.date) {
+                h.elevation = r.elevation.or(h.elevation);
+                h.azimuth = r.azimuth.or(h.azimuth);
+            }
+        }
+        if let Some(course) = tank.course(r.course) {
+            if let Some(kind) = suspect_reading(r.thickness, course.nominal_thickness) {
+                warnings.push(Warning::SuspectReading {
+                    location: readings.locate(r.origin),
+                    course: r.course,
+                    thickness: Shown::thickness(r.thickness, units),
+                    nominal: Shown::thickness(course.nominal_thickness, units),
+                    kind,
+                });
+            }
+        }
+    }
+    let surveys = per_date
+        .iter()
+        .map(|(&date, &n)| SurveyInfo { date, readings: n })
+        .collect();
+
+    // 2. Per course, everything that does not depend on the tank's interval.
+    let mut courses: Vec<CourseResult> = Vec::with_capacity(tank.courses.len());
+    for course in &tank.courses {
+        let stress = in_service_stress(units, tank.construction, course.number, &course.material);
+        let e = tank.joint_efficiency_of(course);
+        let load = CourseLoad {
+            units,
+            diameter: tank.diameter,
+            specific_gravity: tank.specific_gravity,
+            stress: stress.value,
+            joint_efficiency: e,
+            bottom_elevation: course.bottom_elevation,
+        };
+        let t_min = whole_course_t_min(load, tank.max_fill_height);
+        let history: Vec<CourseSurvey> = by_course_date
+            .range((course.number, NaiveDate::MIN)..=(course.number, NaiveDate::MAX))
+            .filter_map(|((_, date), values)| course_survey(*date, values, tank.thickness_basis))
+            .collect();
+        let condition = history.last().copied().map(|latest| {
+            let basis: Vec<BasisPoint> = history
+                .iter()
+                .map(|s| BasisPoint {
+                    date: s.date,
+                    thickness: s.basis,
+                })
+                .collect();
+            let lt = long_term(&basis, course.nominal_thickness, tank.in_service_since);
+            let st = short_term(&basis);
+            let reg = regression(&basis);
+            let rate = governing_rate(tank.rate_basis, lt.as_ref(), st.as_ref(), reg.as_ref());
+            let n = rate.map(|r| r.value);
+            let t_actual = latest.basis;
+            let life = remaining_life(t_actual, t_min.value, n);
+            let rca = Thickness(t_actual.0 - t_min.value.0);
+            CourseCondition {
+                retirement_date: life.years().and_then(|y| add_years(latest.date, y)),
+                status: status(t_actual, t_min.value, life),
+                max_fill_height: max_fill_height(load, t_actual),
+                max_fill_height_next: None,
+                ut_interval: interval(IntervalKind::UltrasonicThickness, rca, n),
+                external_interval: interval(IntervalKind::External, rca, n),
+                history: history.clone(),
+                latest,
+                long_term: lt,
+                short_term: st,
+                regression: reg,
+                rate,
+                remaining_life: life,
+            }
+        });
+        course_warnings(&tank, course.number, condition.as_ref(), latest_survey, &t_min, &mut warnings);
+        courses.push(CourseResult {
+            number: course.number,
+            bottom_elevation: course.bottom_elevation,
+            height: course.height,
+            nominal_thickness: course.nominal_thickness,
+            stress,
+            joint_efficiency: e,
+            t_min,
+            condition,
+        });
+    }
+
+    // 3. Tank level.
+    let ut_interval = tank_interval(&courses, |c| c.ut_interval, IntervalKind::UltrasonicThickness);
+    let external_interval = tank_interval(&courses, |c| c.external_interval, IntervalKind::External);
+    for c in &mut courses {
+        if let Some(cond) = c.condition.as_mut() {
+            cond.max_fill_height_next = cond.rate.map(|r| {
+                let load = cond.max_fill_height.load;
+                max_fill_height(load, cond.t_actual().after(r.value, ut_interval.years))
+            });
+        }
+    }
+    let measured: Vec<(u32, &CourseCondition)> = courses
+        .iter()
+        .filter_map(|c| c.condition.as_ref().map(|k| (c.number, k)))
+        .collect();
+    let unmeasured: Vec<u32> = courses
+        .iter()
+        .filter(|c| c.condition.is_none())
+        .map(|c| c.number)
+        .collect();
+    if !unmeasured.is_empty() {
+        warnings.push(Warning::FillHeightIgnoresUnmeasured {
+            courses: unmeasured,
+        });
+    }
+    let governing = measured
+        .iter()
+        .filter(|(_, k)| k.remaining_life != RemainingLife::Unknown)
+        .min_by(|a, b| {
+            a.1.remaining_life
+                .sort_key()
+                .partial_cmp(&b.1.remaining_life.sort_key())
+                .unwrap_or(std::cmp::Ordering::Equal)
+        });
+    let least = |f: &dyn Fn(&CourseCondition) -> Option<Length>| -> Option<FillLimit> {
+        let mut best: Option<FillLimit> = None;
+        for (n, k) in &measured {
+            let level = f(k)?;
+            if best.is_none_or(|b| level.0 < b.level.0) {
+                best = Some(FillLimit { level, course: *n });
+            }
+        }
+        best
+    };
+    let max_fill_now = least(&|k| Some(k.max_fill_height.value));
+    let max_fill_next = least(&|k| k.max_fill_height_next.map(|h| h.value));
+    let no_rate: Vec<u32> = measured
+        .iter()
+        .filter(|(_, k)| k.rate.is_none())
+        .map(|(n, _)| *n)
+        .collect();
+    if !no_rate.is_empty() && !measured.is_empty() {
+        warnings.push(Warning::NextFillHeightUnknown { courses: no_rate });
+    }
+    let summary = TankSummary {
+        governing_course: governing.map(|(n, _)| *n),
+        remaining_life: governing.map(|(_, k)| k.remaining_life),
+        max_fill_height: max_fill_now,
+        max_fill_height_next: max_fill_next,
+        next_ut_inspection: add_years(latest_survey, ut_interval.years),
+        next_external_inspection: add_years(latest_survey, external_interval.years),
+        ut_interval,
+        external_interval,
+        below_minimum: measured
+            .iter()
+            .filter(|(_, k)| k.status == Status::BelowMinimum)
+            .map(|(n, _)| *n)
+            .collect(),
+    };
+
+    // 4. Points.
+    let points: Vec<_> = by_point
+        .values_mut()
+        .filter_map(|h| {
+            h.readings.sort_by_key(|(d, _)| *d);
+            let t_min = courses.iter().find(|c| c.number == h.course)?.t_min.value;
+            point_result(h, t_min)
+        })
+        .collect();
+    let hot = hot_spots(&points);
+
+    Ok(Assessment {
+        tank,
+        overrides,
+        as_of,
+        latest_survey,
+        surveys,
+        courses,
+        summary,
+        points,
+        hot_spots: hot,
+        warnings,
+    })
+}
+
+/// The least interval over courses with a known rate (or no allowance left); the
+/// no-rate default when there is none (API 653 6.3).
+fn tank_interval(
+    courses: &[CourseResult],
+    pick: impl Fn(&CourseCondition) -> super::life::IntervalCalc,
+    kind: IntervalKind,
+) -> TankInterval {
+    let mut best: Option<TankInterval> = None;
+    for c in courses {
+        let Some(k) = c.condition.as_ref() else { continue };
+        let i = pick(k);
+        if i.basis == IntervalBasis::NoRateKnown {
+            continue;
+        }
+        if best.is_none_or(|b| i.years < b.years) {
+            best = Some(TankInterval {
+                years: i.years,
+                course: Some(c.number),
+                basis: i.basis,
+            });
+        }
+    }
+    best.unwrap_or(TankInterval {
+        years: kind.without_rate(),
+        course: None,
+        basis: IntervalBasis::NoRateKnown,
+    })
+}
+
+fn course_warnings(
+    tank: &Tank,
+    number: u32,
+    condition: Option<&CourseCondition>,
+    latest_survey: NaiveDate,
+    t_min: &super::shell::TminCalc,
+    out: &mut Vec<Warning>,
+) {
+    let units = tank.units;
+    let Some(k) = condition else {
+        out.push(Warning::NoReadings { course: number });
+        return;
+    };
+    if k.latest.date < latest_survey {
+        out.push(Warning::NotInLatestSurvey {
+            course: number,
+            last: k.latest.date,
+            latest: latest_survey,
+        });
+    }
+    match (&k.rate, &k.long_term) {
+        (None, _) => out.push(Warning::NoRate { course: number }),
+        (Some(r), lt) => {
+            if let Some(reason) = r.fallback {
+                out.push(Warning::RateBasisFallback {
+                    course: number,
+                    requested: r.requested,
+                    used: r.used,
+                    reason,
+                });
+            }
+            if r.clamped() {
+                out.push(Warning::ApparentThickening {
+                    course: number,
+                    rate: Shown::rate(r.raw, units),
+                });
+            }
+            if let (Some(lt), Some(since)) = (lt, tank.in_service_since) {
+                if lt.from_nominal {
+                    out.push(Warning::AssumedNominal {
+                        course: number,
+                        nominal: Shown::thickness(lt.t_from, units),
+                        since,
+                    });
+                }
+            }
+        }
+    }
+    if k.max_fill_height.below_floor {
+        out.push(Warning::BelowFloor {
+            course: number,
+            thickness: Shown::thickness(k.t_actual(), units),
+            floor: Shown::thickness(t_min.form.floor, units),
+        });
+    }
+}

@@ -1,0 +1,16 @@
+//! The engineering: pure functions of typed values, no I/O, no printing.
+//!
+//! Each module opens with the method it implements, its published source and clause,
+//! and the symbols with their units. Constants live in [`constants`], each with its
+//! origin; the built-in material table in [`materials`].
+
+pub mod assess;
+pub mod constants;
+pub mod life;
+pub mod materials;
+pub mod points;
+pub mod rates;
+pub mod shell;
+pub mod stress;
+pub mod survey;
+pub mod units;

@@ -1,0 +1,131 @@
+//! Corrosion rates of individual thickness monitoring locations, and hot spots.
+//!
+//! Source: API 653 4.4.5 / 6.3 (rates from successive readings at the same location,
+//! from memory) and methods.md s.6 "Point level".
+//!
+//! - point rate = (t_first - t_last) / years(first, last), from the point's own
+//!   readings (two or more dates);
+//! - point remaining life = (t_last - t_min of its course) / max(rate, 0);
+//! - hot spots: the points with the least remaining life, then the fastest rate.
+
+use chrono::NaiveDate;
+
+use super::life::{RemainingLife, remaining_life};
+use super::rates::years_between;
+use super::units::{Length, Rate, Thickness};
+use crate::model::result::PointResult;
+
+/// Most hot spots listed.
+pub const HOT_SPOT_COUNT: usize = 10;
+
+/// The dated readings of one point, oldest first (one per date).
+#[derive(Debug, Clone, PartialEq)]
+pub struct PointHistory {
+    /// Point id.
+    pub point: String,
+    /// Course.
+    pub course: u32,
+    /// (date, thickness), oldest first.
+    pub readings: Vec<(NaiveDate, Thickness)>,
+    /// Elevation of the latest reading, when given.
+    pub elevation: Option<Length>,
+    /// Azimuth of the latest reading, when given.
+    pub azimuth: Option<f64>,
+}
+
+/// Rate and remaining life of one point, against its course's `t_min`.
+pub fn point_result(history: &PointHistory, t_min: Thickness) -> Option<PointResult> {
+    let first = *history.readings.first()?;
+    let last = *history.readings.last()?;
+    let years = years_between(first.0, last.0);
+    let rate = (history.readings.len() >= 2 && years > 0.0)
+        .then(|| Rate((first.1.0 - last.1.0) / years));
+    let life = remaining_life(last.1, t_min, rate.map(|r| Rate(r.0.max(0.0))));
+    Some(PointResult {
+        point: history.point.clone(),
+        course: history.course,
+        elevation: history.elevation,
+        azimuth: history.azimuth,
+        surveys: history.readings.len(),
+        first,
+        last,
+        rate,
+        remaining_life: life,
+    })
+}
+
+/// Indices of the worst points: thinning points ordered by remaining life, then by
+/// rate (fastest first), at most [`HOT_SPOT_COUNT`].
+pub fn hot_spots(points: &[PointResult]) -> Vec<usize> {
+    let mut idx: Vec<usize> = points
+        .iter()
+        .enumerate()
+        .filter(|(_, p)| {
+            p.rate.is_some_and(|r| r.0 > 0.0) || p.remaining_life == RemainingLife::Years(0.0)
+        })
+        .map(|(i, _)| i)
+        .collect();
+    idx.sort_by(|&a, &b| {
+        let (pa, pb) = (&points[a], &points[b]);
+        pa.remaining_life
+            .sort_key()
+            .partial_cmp(&pb.remaining_life.sort_key())
+            .unwrap_or(std::cmp::Ordering::Equal)
+            .then_with(|| {
+                let ra = pa.rate.map_or(0.0, |r| r.0);
+                let rb = pb.rate.map_or(0.0, |r| r.0);
+                rb.partial_cmp(&ra).unwrap_or(std::cmp::Ordering::Equal)
+            })
+            .then_with(|| (pa.course, &pa.point).cmp(&(pb.course, &pb.point)))
+    });
+    idx.truncate(HOT_SPOT_COUNT);
+    idx
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn d(y: i32) -> NaiveDate {
+        NaiveDate::from_ymd_opt(y, 6, 1).expect("date")
+    }
+
+    fn hist(id: &str, r: &[(i32, f64)]) -> PointHistory {
+        PointHistory {
+            point: id.to_string(),
+            course: 1,
+            readings: r.iter().map(|&(y, t)| (d(y), Thickness(t))).collect(),
+            elevation: None,
+            azimuth: None,
+        }
+    }
+
+    /// Hand: 2004 12.0 -> 2024 11.0 over 7305 days = 20 y: rate 0.05 mm/y;
+    /// t_min 10.0: RL = (11.0 - 10.0) / 0.05 = 20 y.
+    #[test]
+    fn point_rate_by_hand() {
+        let p = point_result(&hist("A1", &[(2004, 12.0), (2014, 11.6), (2024, 11.0)]), Thickness(10.0))
+            .expect("readings");
+        assert!((p.rate.expect("two dates").0 - 0.05).abs() < 1e-12);
+        assert!((p.remaining_life.years().expect("finite") - 20.0).abs() < 1e-9);
+        let single = point_result(&hist("A2", &[(2024, 11.0)]), Thickness(10.0)).expect("one");
+        assert_eq!(single.rate, None);
+        assert_eq!(single.remaining_life, RemainingLife::Unknown);
+    }
+
+    #[test]
+    fn hot_spots_order() {
+        let t_min = Thickness(10.0);
+        let pts: Vec<PointResult> = [
+            hist("slow", &[(2004, 12.0), (2024, 11.8)]),
+            hist("fast", &[(2004, 12.0), (2024, 10.5)]),
+            hist("thick", &[(2004, 12.0), (2024, 12.2)]),
+            hist("below", &[(2004, 10.2), (2024, 9.9)]),
+        ]
+        .iter()
+        .filter_map(|h| point_result(h, t_min))
+        .collect();
+        let order: Vec<&str> = hot_spots(&pts).iter().map(|&i| pts[i].point.as_str()).collect();
+        assert_eq!(order, ["below", "fast", "slow"]);
+    }
+}
