@@ -1,5 +1,76 @@
 //! strake: in-service assessment of above-ground storage tank shells from ultrasonic
 //! thickness surveys.
+//!
+//! Layers (data flows one way): [`cli`] declares the command line; [`cmd`] glues a
+//! command to [`input`] (the only code that opens files), [`calc`] (the engineering,
+//! pure functions) and [`report`] (renderers over the one result model in [`model`]).
 
 pub mod calc;
+pub mod cli;
+pub mod cmd;
+pub mod input;
 pub mod model;
+pub mod report;
+
+use cli::{Cli, Command};
+
+/// How a successful run ended.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Outcome {
+    /// Exit 0.
+    Done,
+    /// `--fail-below-minimum` and a course is below t_min: exit 3.
+    BelowMinimum,
+    /// Some inputs had errors, already reported in the output (`check`): exit 1.
+    InputErrors,
+}
+
+impl Outcome {
+    /// The process exit code.
+    pub fn code(self) -> u8 {
+        match self {
+            Outcome::Done => 0,
+            Outcome::InputErrors => 1,
+            Outcome::BelowMinimum => 3,
+        }
+    }
+}
+
+/// Everything that stops a command.
+#[derive(Debug, thiserror::Error)]
+pub enum Error {
+    /// A problem in an input file (exit 1).
+    #[error(transparent)]
+    Input(#[from] input::error::InputError),
+    /// The tank cannot be assessed (exit 1).
+    #[error("{dir}: {source}")]
+    Assess {
+        /// Tank folder.
+        dir: String,
+        /// Why.
+        source: calc::assess::AssessError,
+    },
+    /// Rendering CSV failed.
+    #[error("cannot render CSV: {0}")]
+    Render(#[source] csv::Error),
+    /// Writing the output failed.
+    #[error("cannot write the output: {0}")]
+    Output(#[source] std::io::Error),
+}
+
+impl Error {
+    /// True when standard output was closed by the reader (`strake ... | head`).
+    pub fn is_broken_pipe(&self) -> bool {
+        matches!(self, Error::Output(e) if e.kind() == std::io::ErrorKind::BrokenPipe)
+    }
+}
+
+/// Runs a parsed command line.
+pub fn run(cli: Cli) -> Result<Outcome, Error> {
+    let g = cmd::Global::new(cli.units, cli.format, cli.quiet, cli.color);
+    match &cli.command {
+        Command::Check(a) => cmd::check::run(a, g),
+        Command::Assess(a) => cmd::assess::run(a, g),
+        Command::FillHeight(a) => cmd::fill_height::run(a, g),
+    }
+}

@@ -181,16 +181,22 @@ pub fn interval(kind: IntervalKind, rca: Thickness, rate: Option<Rate>) -> Inter
     }
 }
 
-/// `date` plus `years` (days = round(years x 365.25)); None past the calendar's end.
+/// `date` plus `years`: whole years as calendar years (so a 5-year interval from
+/// 2023-08-30 ends on 2028-08-30), the fraction as days (fraction x 365.25, rounded).
+/// None past the calendar's end.
 pub fn add_years(date: NaiveDate, years: f64) -> Option<NaiveDate> {
-    if !years.is_finite() {
+    if !years.is_finite() || years.abs() > 10_000.0 {
         return None;
     }
-    let days = (years * DAYS_PER_YEAR).round();
-    if days.abs() > 3.0e6 {
-        return None;
-    }
-    date.checked_add_signed(Duration::days(days as i64))
+    let whole = years.trunc();
+    let days = ((years - whole) * DAYS_PER_YEAR).round() as i64;
+    let months = chrono::Months::new((whole.abs() as u32).checked_mul(12)?);
+    let shifted = if whole >= 0.0 {
+        date.checked_add_months(months)?
+    } else {
+        date.checked_sub_months(months)?
+    };
+    shifted.checked_add_signed(Duration::days(days))
 }
 
 #[cfg(test)]
@@ -251,7 +257,9 @@ mod tests {
         assert_eq!((now.years, now.basis), (0.0, IntervalBasis::NoAllowanceLeft));
     }
 
-    /// 15 years after 2026-06-11: round(15 x 365.25) = 5479 days -> 2041-06-11.
+    /// 15 years after 2026-06-11 is 2041-06-11 (the formats.md example); 4.7 years
+    /// after 2026-05-19: 4 calendar years -> 2030-05-19, then round(0.7 x 365.25) =
+    /// 256 days -> 2031-01-30.
     #[test]
     fn due_dates() {
         let d = NaiveDate::from_ymd_opt(2026, 6, 11).expect("date");
@@ -259,5 +267,10 @@ mod tests {
         assert_eq!(add_years(d, 5.0), NaiveDate::from_ymd_opt(2031, 6, 11));
         assert_eq!(add_years(d, 0.0), Some(d));
         assert_eq!(add_years(d, f64::INFINITY), None);
+        let d = NaiveDate::from_ymd_opt(2026, 5, 19).expect("date");
+        assert_eq!(add_years(d, 4.7), NaiveDate::from_ymd_opt(2031, 1, 30));
+        // Leap day: 2024-02-29 plus one year is 2025-02-28 (chrono clamps the day).
+        let leap = NaiveDate::from_ymd_opt(2024, 2, 29).expect("date");
+        assert_eq!(add_years(leap, 1.0), NaiveDate::from_ymd_opt(2025, 2, 28));
     }
 }

@@ -6,10 +6,12 @@
 
 pub mod assess;
 pub mod constants;
+pub mod fill_height;
 pub mod life;
 pub mod materials;
 pub mod points;
 pub mod rates;
+pub mod screen;
 pub mod shell;
 pub mod stress;
 pub mod survey;

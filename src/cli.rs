@@ -1,0 +1,173 @@
+//! The command line (clap derive). Only declarations: `cmd` turns them into work.
+
+use std::path::PathBuf;
+
+use chrono::NaiveDate;
+use clap::{Args, Parser, Subcommand, ValueEnum};
+
+/// Output format.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum Format {
+    /// A table and a verdict for people.
+    Text,
+    /// The JSON contract (see README, "Output formats").
+    Json,
+    /// CSV, one row per course.
+    Csv,
+}
+
+/// Unit system to print in.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum UnitsArg {
+    /// m, mm, MPa.
+    #[value(name = "si", alias = "SI")]
+    Si,
+    /// ft, in, psi.
+    #[value(name = "usc", alias = "USC")]
+    Usc,
+}
+
+/// When to colour.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ColorArg {
+    /// On a terminal, unless NO_COLOR is set.
+    Auto,
+    /// Always.
+    Always,
+    /// Never.
+    Never,
+}
+
+/// Fitness-for-service screening of storage tank shells from ultrasonic thickness
+/// surveys: t_min per course by the one-foot relation, corrosion rates, remaining
+/// life, inspection due dates and the allowable fill height.
+#[derive(Debug, Parser)]
+#[command(
+    name = "strake",
+    version,
+    after_help = "Examples:\n  strake check sample-inspections/*\n  strake assess sample-inspections/kestrel-t12\n  strake fill-height sample-inspections/kestrel-t12 --sg 1.0 --years 10\n\nExit codes: 0 done, 1 bad input, 2 usage, 3 a course below t_min (with --fail-below-minimum).\nEvery result is a screening aid: it defers to the applicable code edition, local\nregulations and an authorized inspector's or qualified engineer's judgement."
+)]
+pub struct Cli {
+    /// What to do.
+    #[command(subcommand)]
+    pub command: Command,
+    /// Print numbers in this unit system instead of the tank's own.
+    #[arg(long, global = true, value_enum)]
+    pub units: Option<UnitsArg>,
+    /// Output format.
+    #[arg(long, global = true, value_enum, default_value_t = Format::Text)]
+    pub format: Format,
+    /// Shorter text output: no verdict paragraph, warnings only counted.
+    #[arg(long, short, global = true)]
+    pub quiet: bool,
+    /// Colour the terminal output.
+    #[arg(long, global = true, value_enum, default_value_t = ColorArg::Auto)]
+    pub color: ColorArg,
+}
+
+/// The commands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Validate tank folders or survey CSV files and summarise what they hold.
+    #[command(after_help = "Example:\n  strake check sample-inspections/kestrel-t12 new-survey.csv")]
+    Check(CheckArgs),
+    /// Assess one tank: t_min, rates, remaining life, due dates, allowable fill height.
+    #[command(
+        after_help = "Examples:\n  strake assess sample-inspections/kestrel-t12\n  strake assess sample-inspections/kestrel-t12 --format json\n  strake assess sample-inspections/kestrel-t12 --as-of 2014-12-31 --sg 1.0"
+    )]
+    Assess(AssessArgs),
+    /// Allowable liquid level for the stored product and other specific gravities.
+    #[command(
+        name = "fill-height",
+        after_help = "Example:\n  strake fill-height sample-inspections/kestrel-t12 --sg 1.0 --sg 1.2 --years 10"
+    )]
+    FillHeight(FillHeightArgs),
+}
+
+/// `strake check`.
+#[derive(Debug, Args)]
+pub struct CheckArgs {
+    /// Tank folders (holding tank.toml and surveys/) or survey CSV files.
+    #[arg(required = true, value_name = "PATH")]
+    pub paths: Vec<PathBuf>,
+}
+
+/// Options shared by commands that assess a tank.
+#[derive(Debug, Args)]
+pub struct TankArgs {
+    /// The tank folder (tank.toml and surveys/*.csv).
+    #[arg(value_name = "TANK_DIR")]
+    pub dir: PathBuf,
+    /// Assess with the surveys up to this date (YYYY-MM-DD).
+    #[arg(long, value_name = "DATE", value_parser = parse_date)]
+    pub as_of: Option<NaiveDate>,
+}
+
+/// `strake assess`.
+#[derive(Debug, Args)]
+pub struct AssessArgs {
+    #[command(flatten)]
+    pub tank: TankArgs,
+    /// What-if specific gravity instead of the tank file's.
+    #[arg(long, value_name = "G", value_parser = parse_sg)]
+    pub sg: Option<f64>,
+    /// What-if maximum liquid level, in the tank's length unit.
+    #[arg(long, value_name = "H", value_parser = parse_positive)]
+    pub fill_height: Option<f64>,
+    /// Exit with code 3 when a course is below t_min.
+    #[arg(long)]
+    pub fail_below_minimum: bool,
+}
+
+/// `strake fill-height`.
+#[derive(Debug, Args)]
+pub struct FillHeightArgs {
+    #[command(flatten)]
+    pub tank: TankArgs,
+    /// Another specific gravity to evaluate (repeatable).
+    #[arg(long = "sg", value_name = "G", value_parser = parse_sg)]
+    pub sgs: Vec<f64>,
+    /// Years of further corrosion for the "later" column (default: the tank's UT
+    /// thickness survey interval).
+    #[arg(long, value_name = "N", value_parser = parse_years)]
+    pub years: Option<f64>,
+}
+
+fn parse_date(s: &str) -> Result<NaiveDate, String> {
+    NaiveDate::parse_from_str(s, "%Y-%m-%d")
+        .map_err(|_| format!("\"{s}\" is not a date, expected YYYY-MM-DD"))
+}
+
+fn parse_number(s: &str) -> Result<f64, String> {
+    match s.parse::<f64>() {
+        Ok(v) if v.is_finite() => Ok(v),
+        _ => Err(format!("\"{s}\" is not a number")),
+    }
+}
+
+fn parse_sg(s: &str) -> Result<f64, String> {
+    let v = parse_number(s)?;
+    if v > 0.0 && v <= crate::calc::constants::MAX_SPECIFIC_GRAVITY {
+        Ok(v)
+    } else {
+        Err(format!("{v} is out of range, expected more than 0 and at most 3 (water = 1.0)"))
+    }
+}
+
+fn parse_positive(s: &str) -> Result<f64, String> {
+    let v = parse_number(s)?;
+    if v > 0.0 {
+        Ok(v)
+    } else {
+        Err(format!("{v} is not positive"))
+    }
+}
+
+fn parse_years(s: &str) -> Result<f64, String> {
+    let v = parse_number(s)?;
+    if (0.0..=200.0).contains(&v) {
+        Ok(v)
+    } else {
+        Err(format!("{v} is out of range, expected 0 to 200 years"))
+    }
+}

@@ -1,0 +1,98 @@
+//! `strake check PATH...`: tank folders or lone survey files.
+
+use std::path::Path;
+
+use super::{Global, display, today};
+use crate::calc::screen::screen;
+use crate::cli::{CheckArgs, Format};
+use crate::input::error::{InputError, InputErrorKind, Location};
+use crate::input::survey_csv::{SurveyContext, read_survey};
+use crate::input::tank_dir::{TANK_FILE, context_of, load_tank_dir, load_tank_file};
+use crate::model::reading::ReadingSet;
+use crate::report::check::{Checked, render_json, render_text};
+use crate::report::write;
+use crate::{Error, Outcome};
+
+/// Runs the command: every path is checked, errors do not stop the others.
+pub fn run(args: &CheckArgs, g: Global) -> Result<Outcome, Error> {
+    let today = today();
+    let items: Vec<Checked> = args
+        .paths
+        .iter()
+        .map(|p| {
+            check_path(p, today).unwrap_or_else(|e| Checked::Failed {
+                path: display(p),
+                message: e.to_string(),
+            })
+        })
+        .collect();
+    let out = match g.format {
+        Format::Json => render_json(&items),
+        _ => render_text(&items),
+    };
+    write::print(&out, g.color).map_err(Error::Output)?;
+    if items.iter().any(|i| matches!(i, Checked::Failed { .. })) {
+        Ok(Outcome::InputErrors)
+    } else {
+        Ok(Outcome::Done)
+    }
+}
+
+fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputError> {
+    if path.is_dir() {
+        let folder = load_tank_dir(path, today)?;
+        let screening = screen(Some(&folder.tank), &folder.readings);
+        return Ok(Checked::Tank {
+            dir: folder.dir,
+            tank: Box::new(folder.tank),
+            files: folder.files,
+            screening,
+            remarks: folder.warnings,
+        });
+    }
+    let is_csv = path.extension().is_some_and(|x| x.eq_ignore_ascii_case("csv"));
+    if !path.is_file() || !is_csv {
+        let kind = if path.exists() {
+            InputErrorKind::NotATankOrCsv
+        } else {
+            InputErrorKind::Io(std::io::Error::new(std::io::ErrorKind::NotFound, "no such file or folder"))
+        };
+        return Err(InputError::new(Location::file(display(path)), kind));
+    }
+    // A survey file inside TANK/surveys/ is checked against its tank.
+    let tank_dir = path.parent().and_then(Path::parent).filter(|d| d.join(TANK_FILE).is_file());
+    let tank = tank_dir.map(load_tank_file).transpose()?;
+    let ctx = match &tank {
+        Some(t) => context_of(t, today),
+        None => SurveyContext {
+            units: None,
+            nominal: Vec::new(),
+            shell_height: None,
+            in_service_since: None,
+            today,
+        },
+    };
+    let shown = display(path);
+    let bytes = std::fs::read(path)
+        .map_err(|e| InputError::new(Location::file(shown.clone()), InputErrorKind::Io(e)))?;
+    let mut set = ReadingSet::default();
+    let info = read_survey(&shown, &bytes, 0, &ctx, &mut set.readings)?;
+    set.files.push(shown);
+    match tank {
+        Some(t) => {
+            let remarks = crate::input::tank_dir::remove_repeats(&t, &mut set)?;
+            let screening = screen(Some(&t), &set);
+            Ok(Checked::Tank {
+                dir: info.path.clone(),
+                tank: Box::new(t),
+                files: vec![info],
+                screening,
+                remarks,
+            })
+        }
+        None => Ok(Checked::File {
+            screening: screen(None, &set),
+            info,
+        }),
+    }
+}

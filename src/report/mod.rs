@@ -1,0 +1,12 @@
+//! Outputs: each module renders bytes from the one result model; nothing here
+//! computes an engineering value. [`write`] decides stdout versus file.
+
+pub mod caution;
+pub mod check;
+pub mod csv_out;
+pub mod fill;
+pub mod json;
+pub mod text;
+pub mod verdict;
+pub mod view;
+pub mod write;
