@@ -69,7 +69,9 @@ pub struct Cli {
 #[derive(Debug, Subcommand)]
 pub enum Command {
     /// Validate tank folders or survey CSV files and summarise what they hold.
-    #[command(after_help = "Example:\n  strake check sample-inspections/kestrel-t12 new-survey.csv")]
+    #[command(
+        after_help = "Example:\n  strake check sample-inspections/kestrel-t12 new-survey.csv"
+    )]
     Check(CheckArgs),
     /// Assess one tank: t_min, rates, remaining life, due dates, allowable fill height.
     #[command(
@@ -150,7 +152,9 @@ fn parse_sg(s: &str) -> Result<f64, String> {
     if v > 0.0 && v <= crate::calc::constants::MAX_SPECIFIC_GRAVITY {
         Ok(v)
     } else {
-        Err(format!("{v} is out of range, expected more than 0 and at most 3 (water = 1.0)"))
+        Err(format!(
+            "{v} is out of range, expected more than 0 and at most 3 (water = 1.0)"
+        ))
     }
 }
 

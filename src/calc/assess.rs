@@ -111,29 +111,31 @@ pub fn assess(
             .push(r.thickness.0);
         *per_date.entry(r.date).or_default() += 1;
         if let Some(id) = r.point.as_deref() {
-            let h = by_point.entry((r.course, id)).or_insert_with(|| PointHistory {
-                point: id.to_string(),
-                course: r.course,
-                readings: Vec::new(),
-                elevation: None,
-                azimuth: None,
-            });
+            let h = by_point
+                .entry((r.course, id))
+                .or_insert_with(|| PointHistory {
+                    point: id.to_string(),
+                    course: r.course,
+                    readings: Vec::new(),
+                    elevation: None,
+                    azimuth: None,
+                });
             h.readings.push((r.date, r.thickness));
             if h.readings.iter().all(|(d, _)| *d <= r.date) {
                 h.elevation = r.elevation.or(h.elevation);
                 h.azimuth = r.azimuth.or(h.azimuth);
             }
         }
-        if let Some(course) = tank.course(r.course) {
-            if let Some(kind) = suspect_reading(r.thickness, course.nominal_thickness) {
-                warnings.push(Warning::SuspectReading {
-                    location: readings.locate(r.origin),
-                    course: r.course,
-                    thickness: Shown::thickness(r.thickness, units),
-                    nominal: Shown::thickness(course.nominal_thickness, units),
-                    kind,
-                });
-            }
+        if let Some(course) = tank.course(r.course)
+            && let Some(kind) = suspect_reading(r.thickness, course.nominal_thickness)
+        {
+            warnings.push(Warning::SuspectReading {
+                location: readings.locate(r.origin),
+                course: r.course,
+                thickness: Shown::thickness(r.thickness, units),
+                nominal: Shown::thickness(course.nominal_thickness, units),
+                kind,
+            });
         }
     }
     let surveys = per_date
@@ -191,7 +193,14 @@ pub fn assess(
                 remaining_life: life,
             }
         });
-        course_warnings(&tank, course.number, condition.as_ref(), latest_survey, &t_min, &mut warnings);
+        course_warnings(
+            &tank,
+            course.number,
+            condition.as_ref(),
+            latest_survey,
+            &t_min,
+            &mut warnings,
+        );
         courses.push(CourseResult {
             number: course.number,
             bottom_elevation: course.bottom_elevation,
@@ -205,8 +214,13 @@ pub fn assess(
     }
 
     // 3. Tank level.
-    let ut_interval = tank_interval(&courses, |c| c.ut_interval, IntervalKind::UltrasonicThickness);
-    let external_interval = tank_interval(&courses, |c| c.external_interval, IntervalKind::External);
+    let ut_interval = tank_interval(
+        &courses,
+        |c| c.ut_interval,
+        IntervalKind::UltrasonicThickness,
+    );
+    let external_interval =
+        tank_interval(&courses, |c| c.external_interval, IntervalKind::External);
     for c in &mut courses {
         if let Some(cond) = c.condition.as_mut() {
             cond.max_fill_height_next = cond.rate.map(|r| {
@@ -308,7 +322,9 @@ fn tank_interval(
 ) -> TankInterval {
     let mut best: Option<TankInterval> = None;
     for c in courses {
-        let Some(k) = c.condition.as_ref() else { continue };
+        let Some(k) = c.condition.as_ref() else {
+            continue;
+        };
         let i = pick(k);
         if i.basis == IntervalBasis::NoRateKnown {
             continue;
@@ -365,14 +381,14 @@ fn course_warnings(
                     rate: Shown::rate(r.raw, units),
                 });
             }
-            if let (Some(lt), Some(since)) = (lt, tank.in_service_since) {
-                if lt.from_nominal {
-                    out.push(Warning::AssumedNominal {
-                        course: number,
-                        nominal: Shown::thickness(lt.t_from, units),
-                        since,
-                    });
-                }
+            if let (Some(lt), Some(since)) = (lt, tank.in_service_since)
+                && lt.from_nominal
+            {
+                out.push(Warning::AssumedNominal {
+                    course: number,
+                    nominal: Shown::thickness(lt.t_from, units),
+                    since,
+                });
             }
         }
     }

@@ -209,7 +209,10 @@ mod tests {
         let rl = remaining_life(Thickness(13.1), Thickness(12.49), Some(Rate(0.08)));
         let y = rl.years().expect("finite");
         assert!((y - 7.625).abs() < 1e-9);
-        assert_eq!(status(Thickness(13.1), Thickness(12.49), rl), Status::Monitor);
+        assert_eq!(
+            status(Thickness(13.1), Thickness(12.49), rl),
+            Status::Monitor
+        );
     }
 
     #[test]
@@ -224,14 +227,21 @@ mod tests {
         // Below t_min: 0 and below-minimum, whatever the rate.
         let rl = remaining_life(Thickness(11.9), Thickness(12.0), None);
         assert_eq!(rl, RemainingLife::Years(0.0));
-        assert_eq!(status(Thickness(11.9), Thickness(12.0), rl), Status::BelowMinimum);
+        assert_eq!(
+            status(Thickness(11.9), Thickness(12.0), rl),
+            Status::BelowMinimum
+        );
     }
 
     /// API 653 6.3.3: RCA 0.61 mm, N 0.08 -> 0.61 / (2 x 0.08) = 3.8125 y (< 15).
     /// External 6.3.2: 0.61 / (4 x 0.08) = 1.90625 y (< 5).
     #[test]
     fn intervals_by_hand() {
-        let ut = interval(IntervalKind::UltrasonicThickness, Thickness(0.61), Some(Rate(0.08)));
+        let ut = interval(
+            IntervalKind::UltrasonicThickness,
+            Thickness(0.61),
+            Some(Rate(0.08)),
+        );
         assert!((ut.years - 3.8125).abs() < 1e-12);
         assert_eq!(ut.basis, IntervalBasis::FromRate);
         let ext = interval(IntervalKind::External, Thickness(0.61), Some(Rate(0.08)));
@@ -241,20 +251,48 @@ mod tests {
     #[test]
     fn interval_caps_and_defaults() {
         // Slow rate: 3.0 / (2 x 0.01) = 150 y -> cap 15; external 3.0 / 0.04 = 75 -> 5.
-        let ut = interval(IntervalKind::UltrasonicThickness, Thickness(3.0), Some(Rate(0.01)));
+        let ut = interval(
+            IntervalKind::UltrasonicThickness,
+            Thickness(3.0),
+            Some(Rate(0.01)),
+        );
         assert_eq!((ut.years, ut.basis), (15.0, IntervalBasis::Cap));
         let ext = interval(IntervalKind::External, Thickness(3.0), Some(Rate(0.01)));
         assert_eq!(ext.years, 5.0);
         // Zero rate: the caps.
-        assert_eq!(interval(IntervalKind::UltrasonicThickness, Thickness(3.0), Some(Rate(0.0))).years, 15.0);
+        assert_eq!(
+            interval(
+                IntervalKind::UltrasonicThickness,
+                Thickness(3.0),
+                Some(Rate(0.0))
+            )
+            .years,
+            15.0
+        );
         // No rate: 5 years for UT (API 653 6.3.3) and 5 for external.
-        assert_eq!(interval(IntervalKind::UltrasonicThickness, Thickness(3.0), None).years, 5.0);
-        assert_eq!(interval(IntervalKind::External, Thickness(3.0), None).years, 5.0);
+        assert_eq!(
+            interval(IntervalKind::UltrasonicThickness, Thickness(3.0), None).years,
+            5.0
+        );
+        assert_eq!(
+            interval(IntervalKind::External, Thickness(3.0), None).years,
+            5.0
+        );
         // No allowance left: 0, act now.
-        let now = interval(IntervalKind::UltrasonicThickness, Thickness(-0.1), Some(Rate(0.1)));
-        assert_eq!((now.years, now.basis), (0.0, IntervalBasis::NoAllowanceLeft));
+        let now = interval(
+            IntervalKind::UltrasonicThickness,
+            Thickness(-0.1),
+            Some(Rate(0.1)),
+        );
+        assert_eq!(
+            (now.years, now.basis),
+            (0.0, IntervalBasis::NoAllowanceLeft)
+        );
         let now = interval(IntervalKind::External, Thickness(0.0), None);
-        assert_eq!((now.years, now.basis), (0.0, IntervalBasis::NoAllowanceLeft));
+        assert_eq!(
+            (now.years, now.basis),
+            (0.0, IntervalBasis::NoAllowanceLeft)
+        );
     }
 
     /// 15 years after 2026-06-11 is 2041-06-11 (the formats.md example); 4.7 years

@@ -124,7 +124,11 @@ mod tests {
     #[test]
     fn spellings_match() {
         for spelling in ["A283-C", "a283c", "A 283 Grade C", "A283 Gr C", "a283-gr.c"] {
-            assert_eq!(find_grade(spelling).map(|g| g.name), Some("A283-C"), "{spelling}");
+            assert_eq!(
+                find_grade(spelling).map(|g| g.name),
+                Some("A283-C"),
+                "{spelling}"
+            );
         }
         assert_eq!(find_grade("A537 Cl 2").map(|g| g.name), Some("A537-2"));
         assert_eq!(find_grade("A537 Class 1").map(|g| g.name), Some("A537-1"));
@@ -143,7 +147,11 @@ mod tests {
             let y = g.yield_psi * 6.894_757e-3;
             assert!((y / g.yield_mpa - 1.0).abs() < 0.03, "{} yield {y}", g.name);
             let t = g.tensile_psi * 6.894_757e-3;
-            assert!((t / g.tensile_mpa - 1.0).abs() < 0.03, "{} tensile {t}", g.name);
+            assert!(
+                (t / g.tensile_mpa - 1.0).abs() < 0.03,
+                "{} tensile {t}",
+                g.name
+            );
         }
     }
 

@@ -38,8 +38,8 @@ pub fn point_result(history: &PointHistory, t_min: Thickness) -> Option<PointRes
     let first = *history.readings.first()?;
     let last = *history.readings.last()?;
     let years = years_between(first.0, last.0);
-    let rate = (history.readings.len() >= 2 && years > 0.0)
-        .then(|| Rate((first.1.0 - last.1.0) / years));
+    let rate =
+        (history.readings.len() >= 2 && years > 0.0).then(|| Rate((first.1.0 - last.1.0) / years));
     let life = remaining_life(last.1, t_min, rate.map(|r| Rate(r.0.max(0.0))));
     Some(PointResult {
         point: history.point.clone(),
@@ -104,8 +104,11 @@ mod tests {
     /// t_min 10.0: RL = (11.0 - 10.0) / 0.05 = 20 y.
     #[test]
     fn point_rate_by_hand() {
-        let p = point_result(&hist("A1", &[(2004, 12.0), (2014, 11.6), (2024, 11.0)]), Thickness(10.0))
-            .expect("readings");
+        let p = point_result(
+            &hist("A1", &[(2004, 12.0), (2014, 11.6), (2024, 11.0)]),
+            Thickness(10.0),
+        )
+        .expect("readings");
         assert!((p.rate.expect("two dates").0 - 0.05).abs() < 1e-12);
         assert!((p.remaining_life.years().expect("finite") - 20.0).abs() < 1e-9);
         let single = point_result(&hist("A2", &[(2024, 11.0)]), Thickness(10.0)).expect("one");
@@ -125,7 +128,10 @@ mod tests {
         .iter()
         .filter_map(|h| point_result(h, t_min))
         .collect();
-        let order: Vec<&str> = hot_spots(&pts).iter().map(|&i| pts[i].point.as_str()).collect();
+        let order: Vec<&str> = hot_spots(&pts)
+            .iter()
+            .map(|&i| pts[i].point.as_str())
+            .collect();
         assert_eq!(order, ["below", "fast", "slow"]);
     }
 }

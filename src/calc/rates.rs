@@ -139,7 +139,10 @@ pub fn regression(history: &[BasisPoint]) -> Option<RegressionCalc> {
         return None;
     }
     let origin = history.first()?.date;
-    let x: Vec<f64> = history.iter().map(|p| years_between(origin, p.date)).collect();
+    let x: Vec<f64> = history
+        .iter()
+        .map(|p| years_between(origin, p.date))
+        .collect();
     let y: Vec<f64> = history.iter().map(|p| p.thickness.0).collect();
     let x_mean = x.iter().mean();
     let y_mean = y.iter().mean();
@@ -147,7 +150,11 @@ pub fn regression(history: &[BasisPoint]) -> Option<RegressionCalc> {
     if sxx <= 0.0 {
         return None;
     }
-    let sxy: f64 = x.iter().zip(&y).map(|(xi, yi)| (xi - x_mean) * (yi - y_mean)).sum();
+    let sxy: f64 = x
+        .iter()
+        .zip(&y)
+        .map(|(xi, yi)| (xi - x_mean) * (yi - y_mean))
+        .sum();
     let slope = sxy / sxx;
     let intercept = y_mean - slope * x_mean;
     let sse: f64 = x
@@ -321,7 +328,10 @@ mod tests {
     #[test]
     fn regression_on_an_exact_line() {
         let h = [
-            BasisPoint { date: d(2000, 1, 1), thickness: Thickness(12.0) },
+            BasisPoint {
+                date: d(2000, 1, 1),
+                thickness: Thickness(12.0),
+            },
             BasisPoint {
                 date: d(2000, 1, 1) + chrono::Duration::days(3653),
                 thickness: Thickness(12.0 - 0.05 * 3653.0 / 365.25),
@@ -343,8 +353,13 @@ mod tests {
         let lt = long_term(&h, Thickness(12.5), None);
         let st = short_term(&h);
         let reg = regression(&h);
-        let g = governing_rate(RateBasis::Conservative, lt.as_ref(), st.as_ref(), reg.as_ref())
-            .expect("rates known");
+        let g = governing_rate(
+            RateBasis::Conservative,
+            lt.as_ref(),
+            st.as_ref(),
+            reg.as_ref(),
+        )
+        .expect("rates known");
         // max(LT = 1.0/20.0 = 0.05, ST = 0.4/5.0021 = 0.07997) = ST
         assert_eq!(g.value, st.map(|s| s.rate).expect("st"));
         // Regression asked with two surveys -> conservative, with the reason.

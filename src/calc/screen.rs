@@ -43,7 +43,9 @@ pub fn screen(tank: Option<&Tank>, set: &ReadingSet) -> Screening {
     for r in &set.readings {
         *s.counts.entry((r.date, r.course)).or_default() += 1;
         let Some(t) = tank else { continue };
-        let Some(course) = t.course(r.course) else { continue };
+        let Some(course) = t.course(r.course) else {
+            continue;
+        };
         if let Some(kind) = suspect_reading(r.thickness, course.nominal_thickness) {
             s.suspects.push(Warning::SuspectReading {
                 location: set.locate(r.origin),

@@ -144,7 +144,9 @@ mod tests {
     }
 
     fn psi(course: u32, m: &Material) -> f64 {
-        in_service_stress(UnitSystem::Usc, Construction::Welded, course, m).value.0
+        in_service_stress(UnitSystem::Usc, Construction::Welded, course, m)
+            .value
+            .0
     }
 
     /// API 653 table 4.1 (from memory) tabulates S to the nearest 100 psi:
@@ -207,9 +209,19 @@ mod tests {
     #[test]
     fn riveted_is_fixed() {
         for course in 1..=4 {
-            let s = in_service_stress(UnitSystem::Usc, Construction::Riveted, course, &grade("A36"));
+            let s = in_service_stress(
+                UnitSystem::Usc,
+                Construction::Riveted,
+                course,
+                &grade("A36"),
+            );
             assert_eq!(s.value, Stress(21_000.0));
-            let s = in_service_stress(UnitSystem::Si, Construction::Riveted, course, &Material::NotGiven);
+            let s = in_service_stress(
+                UnitSystem::Si,
+                Construction::Riveted,
+                course,
+                &Material::NotGiven,
+            );
             assert_eq!(s.value, Stress(145.0));
         }
     }

@@ -99,7 +99,10 @@ mod tests {
     #[test]
     fn statistics_by_hand() {
         let s = course_survey(date(), &[10.0, 11.0, 12.0], ThicknessBasis::Minimum).expect("3");
-        assert_eq!((s.count, s.minimum, s.mean), (3, Thickness(10.0), Thickness(11.0)));
+        assert_eq!(
+            (s.count, s.minimum, s.mean),
+            (3, Thickness(10.0), Thickness(11.0))
+        );
         assert!((s.std_dev.expect("n>1") - 1.0).abs() < 1e-12);
         assert!((s.cov.expect("n>1") - 1.0 / 11.0).abs() < 1e-12);
         assert_eq!(s.basis, Thickness(10.0));
@@ -120,8 +123,14 @@ mod tests {
     fn suspect_limits() {
         let n = Thickness(10.0);
         assert_eq!(suspect_reading(Thickness(11.0), n), None);
-        assert_eq!(suspect_reading(Thickness(11.01), n), Some(SuspectKind::AboveNominal));
+        assert_eq!(
+            suspect_reading(Thickness(11.01), n),
+            Some(SuspectKind::AboveNominal)
+        );
         assert_eq!(suspect_reading(Thickness(5.0), n), None);
-        assert_eq!(suspect_reading(Thickness(4.99), n), Some(SuspectKind::BelowHalfNominal));
+        assert_eq!(
+            suspect_reading(Thickness(4.99), n),
+            Some(SuspectKind::BelowHalfNominal)
+        );
     }
 }

@@ -165,8 +165,14 @@ mod tests {
     fn exact_factors() {
         // 1 in = 25.4 mm and 1 ft = 0.3048 m by definition (international yard and
         // pound agreement, 1959); 1 psi = 6894.757 Pa (NIST SP 811, appendix B).
-        assert_eq!(Thickness(1.0).convert(UnitSystem::Usc, UnitSystem::Si).0, 25.4);
-        assert_eq!(Length(10.0).convert(UnitSystem::Usc, UnitSystem::Si).0, 3.048);
+        assert_eq!(
+            Thickness(1.0).convert(UnitSystem::Usc, UnitSystem::Si).0,
+            25.4
+        );
+        assert_eq!(
+            Length(10.0).convert(UnitSystem::Usc, UnitSystem::Si).0,
+            3.048
+        );
         let mpa = Stress(1000.0).convert(UnitSystem::Usc, UnitSystem::Si).0;
         assert!((mpa - 6.894_757).abs() < 1e-6, "{mpa}");
     }

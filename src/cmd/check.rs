@@ -30,6 +30,11 @@ pub fn run(args: &CheckArgs, g: Global) -> Result<Outcome, Error> {
         Format::Json => render_json(&items),
         _ => render_text(&items),
     };
+    for item in &items {
+        if let Checked::Failed { message, .. } = item {
+            eprintln!("error: {message}");
+        }
+    }
     write::print(&out, g.color).map_err(Error::Output)?;
     if items.iter().any(|i| matches!(i, Checked::Failed { .. })) {
         Ok(Outcome::InputErrors)
@@ -50,17 +55,25 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
             remarks: folder.warnings,
         });
     }
-    let is_csv = path.extension().is_some_and(|x| x.eq_ignore_ascii_case("csv"));
+    let is_csv = path
+        .extension()
+        .is_some_and(|x| x.eq_ignore_ascii_case("csv"));
     if !path.is_file() || !is_csv {
         let kind = if path.exists() {
             InputErrorKind::NotATankOrCsv
         } else {
-            InputErrorKind::Io(std::io::Error::new(std::io::ErrorKind::NotFound, "no such file or folder"))
+            InputErrorKind::Io(std::io::Error::new(
+                std::io::ErrorKind::NotFound,
+                "no such file or folder",
+            ))
         };
         return Err(InputError::new(Location::file(display(path)), kind));
     }
     // A survey file inside TANK/surveys/ is checked against its tank.
-    let tank_dir = path.parent().and_then(Path::parent).filter(|d| d.join(TANK_FILE).is_file());
+    let tank_dir = path
+        .parent()
+        .and_then(Path::parent)
+        .filter(|d| d.join(TANK_FILE).is_file());
     let tank = tank_dir.map(load_tank_file).transpose()?;
     let ctx = match &tank {
         Some(t) => context_of(t, today),

@@ -66,9 +66,9 @@ pub fn load_and_assess(
         if h > shell.0 + 1e-9 {
             let lu = folder.tank.units.length_unit();
             return Err(Error::Input(InputError::new(
-                Location::file("--fill-height"),
+                Location::file(display(&args.dir)),
                 InputErrorKind::InvalidValue {
-                    key: "--fill-height".into(),
+                    key: "option --fill-height".into(),
                     value: format!("{h} {lu}"),
                     problem: format!("is above the shell height {} {lu}", shell.0),
                 },
@@ -80,10 +80,11 @@ pub fn load_and_assess(
         specific_gravity,
         fill_height: fill_height.map(Length),
     };
-    let mut a = assess(&folder.tank, &folder.readings, options).map_err(|source| Error::Assess {
-        dir: display(&args.dir),
-        source,
-    })?;
+    let mut a =
+        assess(&folder.tank, &folder.readings, options).map_err(|source| Error::Assess {
+            dir: display(&args.dir),
+            source,
+        })?;
     let mut remarks = folder.warnings.clone();
     remarks.append(&mut a.warnings);
     a.warnings = remarks;

@@ -102,7 +102,7 @@ pub enum InputErrorKind {
         found: String,
     },
     /// A header name that is not known.
-    #[error("unknown column \"{column}\"{}; known columns: {known}", suggestion_text(.suggestion))]
+    #[error("unknown column \"{column}\"{}; known columns: {known}", paren_suggestion(.suggestion))]
     UnknownColumn {
         /// The name.
         column: String,
@@ -122,7 +122,9 @@ pub enum InputErrorKind {
         second: usize,
     },
     /// Two columns give the same quantity in different units.
-    #[error("columns \"{first}\" and \"{second}\" both give the {quantity}: keep one column (one unit) per file")]
+    #[error(
+        "columns \"{first}\" and \"{second}\" both give the {quantity}: keep one column (one unit) per file"
+    )]
     MixedUnits {
         /// Quantity.
         quantity: &'static str,
@@ -132,7 +134,9 @@ pub enum InputErrorKind {
         second: String,
     },
     /// A row with the wrong number of fields.
-    #[error("{found} fields, expected {expected} as in the header (check the delimiter and quotes)")]
+    #[error(
+        "{found} fields, expected {expected} as in the header (check the delimiter and quotes)"
+    )]
     FieldCount {
         /// Fields in the row.
         found: usize,
@@ -140,13 +144,15 @@ pub enum InputErrorKind {
         expected: usize,
     },
     /// A value that does not parse.
-    #[error("column \"{column}\": \"{value}\" is not {expected}")]
+    #[error("column \"{column}\": \"{value}\" is not {what} (expected {expected})")]
     BadValue {
         /// Column.
         column: String,
         /// Raw text.
         value: String,
-        /// What was expected, as a phrase ("a number in mm").
+        /// What it failed to be ("a number", "an ISO date").
+        what: &'static str,
+        /// What was expected, as a phrase ("a thickness in mm, e.g. 12.40").
         expected: String,
     },
     /// An empty cell where a value is required.
@@ -207,9 +213,9 @@ pub enum InputErrorKind {
         suggestion: Option<String>,
     },
     /// A key with a value of the wrong type.
-    #[error("key \"{key}\": {found} {value}, expected {expected}")]
+    #[error("{key}: {found} {value}, expected {expected}")]
     WrongType {
-        /// Key.
+        /// The key, as a phrase: `key "units"` or `course 2, key "height"`.
         key: String,
         /// Type found.
         found: &'static str,
@@ -219,9 +225,9 @@ pub enum InputErrorKind {
         expected: String,
     },
     /// A key with a value outside its range.
-    #[error("key \"{key}\": {value} {problem}")]
+    #[error("{key}: {value} {problem}")]
     InvalidValue {
-        /// Key.
+        /// The key, as a phrase: `key "units"` or `course 2, key "height"`.
         key: String,
         /// The value as written.
         value: String,
@@ -243,6 +249,12 @@ fn suggestion_text(s: &Option<String>) -> String {
         .unwrap_or_default()
 }
 
+fn paren_suggestion(s: &Option<String>) -> String {
+    s.as_ref()
+        .map(|s| format!(" (did you mean \"{s}\"?)"))
+        .unwrap_or_default()
+}
+
 fn table_text(t: &Option<String>) -> String {
     t.as_ref().map(|t| format!(" in {t}")).unwrap_or_default()
 }
@@ -253,14 +265,17 @@ fn table_text(t: &Option<String>) -> String {
 pub struct InputError {
     /// File, line, column.
     pub location: Location,
-    /// What is wrong.
-    pub kind: InputErrorKind,
+    /// What is wrong (boxed: errors travel through many `Result`s).
+    pub kind: Box<InputErrorKind>,
 }
 
 impl InputError {
     /// An error at `location`.
     pub fn new(location: Location, kind: InputErrorKind) -> Self {
-        InputError { location, kind }
+        InputError {
+            location,
+            kind: Box::new(kind),
+        }
     }
 }
 
@@ -270,7 +285,7 @@ pub fn nearest<'a>(name: &str, known: impl IntoIterator<Item = &'a str>) -> Opti
     let lower = name.to_ascii_lowercase();
     known
         .into_iter()
-        .map(|k| (strsim::jaro_winkler(&lower, k), k))
+        .map(|k| (strsim::jaro_winkler(&lower, &k.to_ascii_lowercase()), k))
         .filter(|(score, _)| *score >= 0.75)
         .max_by(|a, b| a.0.partial_cmp(&b.0).unwrap_or(std::cmp::Ordering::Equal))
         .map(|(_, k)| k.to_string())

@@ -17,6 +17,7 @@ use super::error::{InputError, InputErrorKind, Location, nearest};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{Origin, Reading};
+use crate::model::warning::Shown;
 
 /// Every column name the reader knows.
 pub const KNOWN_COLUMNS: &[&str] = &[
@@ -170,11 +171,17 @@ pub fn read_survey(
     let read = |reader: &mut csv::Reader<&[u8]>, record: &mut csv::ByteRecord| {
         reader.read_byte_record(record).map_err(|e| {
             let line = e.position().map_or(1, |p| p.line());
-            InputError::new(at(line), InputErrorKind::Io(std::io::Error::other(e.to_string())))
+            InputError::new(
+                at(line),
+                InputErrorKind::Io(std::io::Error::other(e.to_string())),
+            )
         })
     };
     if !read(&mut reader, &mut record)? {
-        return Err(InputError::new(Location::file(path), InputErrorKind::EmptyFile));
+        return Err(InputError::new(
+            Location::file(path),
+            InputErrorKind::EmptyFile,
+        ));
     }
     let header_line = record.position().map_or(1, csv::Position::line);
     let cols = header(path, header_line, &record)?;
@@ -205,7 +212,10 @@ pub fn read_survey(
         rows += 1;
     }
     if rows == 0 {
-        return Err(InputError::new(Location::file(path), InputErrorKind::HeaderOnly));
+        return Err(InputError::new(
+            Location::file(path),
+            InputErrorKind::HeaderOnly,
+        ));
     }
     let thickness_unit = match cols.thickness.1 {
         Suffix::Si => Some("mm"),
@@ -250,7 +260,10 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
                 },
             ));
         }
-        if let Some((_, _, first_name)) = seen.iter().find(|(f, _, _)| f.quantity() == field.quantity()) {
+        if let Some((_, _, first_name)) = seen
+            .iter()
+            .find(|(f, _, _)| f.quantity() == field.quantity())
+        {
             return Err(InputError::new(
                 at(),
                 InputErrorKind::MixedUnits {
@@ -262,7 +275,11 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
         }
         seen.push((field, i, name.to_string()));
     }
-    let find = |want: fn(Field) -> bool| seen.iter().find(|(f, _, _)| want(*f)).map(|(f, i, _)| (*f, *i));
+    let find = |want: fn(Field) -> bool| {
+        seen.iter()
+            .find(|(f, _, _)| want(*f))
+            .map(|(f, i, _)| (*f, *i))
+    };
     let missing = |column: &'static str| {
         InputError::new(
             at(),
@@ -273,7 +290,9 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
         )
     };
     let date = find(|f| f == Field::Date).ok_or_else(|| missing("date"))?.1;
-    let course = find(|f| f == Field::Course).ok_or_else(|| missing("course"))?.1;
+    let course = find(|f| f == Field::Course)
+        .ok_or_else(|| missing("course"))?
+        .1;
     let thickness = match find(|f| matches!(f, Field::Thickness(_))) {
         Some((Field::Thickness(s), i)) => (i, s),
         _ => return Err(missing("thickness")),
@@ -320,7 +339,12 @@ impl RowParser<'_> {
         Location::line(self.path, line)
     }
 
-    fn text<'r>(&self, record: &'r csv::ByteRecord, i: usize, line: u64) -> Result<&'r str, InputError> {
+    fn text<'r>(
+        &self,
+        record: &'r csv::ByteRecord,
+        i: usize,
+        line: u64,
+    ) -> Result<&'r str, InputError> {
         let raw = record.get(i).unwrap_or(&[]);
         std::str::from_utf8(raw).map_err(|_| {
             InputError::new(
@@ -332,12 +356,20 @@ impl RowParser<'_> {
         })
     }
 
-    fn bad(&self, line: u64, i: usize, value: &str, expected: String) -> InputError {
+    fn bad(
+        &self,
+        line: u64,
+        i: usize,
+        value: &str,
+        what: &'static str,
+        expected: String,
+    ) -> InputError {
         InputError::new(
             self.at(line),
             InputErrorKind::BadValue {
                 column: self.cols.names[i].clone(),
                 value: shorten(value),
+                what,
                 expected,
             },
         )
@@ -365,7 +397,13 @@ impl RowParser<'_> {
     }
 
     /// A finite number; decimal comma accepted when the delimiter is `;` or tab.
-    fn number(&self, record: &csv::ByteRecord, i: usize, line: u64, expected: &str) -> Result<Option<f64>, InputError> {
+    fn number(
+        &self,
+        record: &csv::ByteRecord,
+        i: usize,
+        line: u64,
+        expected: &str,
+    ) -> Result<Option<f64>, InputError> {
         let s = self.text(record, i, line)?;
         if s.is_empty() {
             return Ok(None);
@@ -376,7 +414,8 @@ impl RowParser<'_> {
                     line,
                     i,
                     s,
-                    format!("{expected} (a decimal comma is accepted only in files delimited by ; or tab)"),
+                    "a number",
+                    format!("{expected}; a decimal comma is accepted only in files delimited by ; or tab"),
                 ));
             }
             if s.contains('.') || s.matches(',').count() > 1 {
@@ -389,12 +428,17 @@ impl RowParser<'_> {
         };
         match parsed {
             Some(v) if v.is_finite() => Ok(Some(v)),
-            Some(_) => Err(self.bad(line, i, s, format!("a finite number: {expected}"))),
-            None => Err(self.bad(line, i, s, format!("a number: {expected}"))),
+            Some(_) => Err(self.bad(line, i, s, "a finite number", expected.to_string())),
+            None => Err(self.bad(line, i, s, "a number", expected.to_string())),
         }
     }
 
-    fn parse(&mut self, record: &csv::ByteRecord, line: u64, file_index: u32) -> Result<Reading, InputError> {
+    fn parse(
+        &mut self,
+        record: &csv::ByteRecord,
+        line: u64,
+        file_index: u32,
+    ) -> Result<Reading, InputError> {
         let ctx = self.ctx;
         let cols = self.cols;
         let date = self.date(record, line)?;
@@ -405,13 +449,21 @@ impl RowParser<'_> {
         if course_text.is_empty() {
             return Err(self.empty(line, ci, "a course number (1 = bottom course)".into()));
         }
-        let course: u32 = course_text
-            .parse()
-            .map_err(|_| self.bad(line, ci, course_text, "a course number (1 = bottom course)".into()))?;
+        let course: u32 = course_text.parse().map_err(|_| {
+            self.bad(
+                line,
+                ci,
+                course_text,
+                "a course number",
+                "a whole number, 1 = bottom course".into(),
+            )
+        })?;
         let n_courses = ctx.nominal.len() as u32;
         if course == 0 || (n_courses > 0 && course > n_courses) {
             let problem = if n_courses > 0 {
-                format!("is not a course of this tank, expected 1 to {n_courses} (1 = bottom course)")
+                format!(
+                    "is not a course of this tank, expected 1 to {n_courses} (1 = bottom course)"
+                )
             } else {
                 "is not a course number, expected 1 or more (1 = bottom course)".into()
             };
@@ -421,7 +473,10 @@ impl RowParser<'_> {
         // thickness
         let (ti, suffix) = cols.thickness;
         let unit_name = suffix_unit(suffix, ctx.units, true);
-        let expected = format!("a thickness in {unit_name}, e.g. {}", example_thickness(unit_name));
+        let expected = format!(
+            "a thickness in {unit_name}, e.g. {}",
+            example_thickness(unit_name)
+        );
         let raw = self
             .number(record, ti, line, &expected)?
             .ok_or_else(|| self.empty(line, ti, expected.clone()))?;
@@ -434,25 +489,26 @@ impl RowParser<'_> {
             ));
         }
         let thickness = convert_thickness(raw, suffix, ctx.units);
-        if let (Some(units), Some(nominal)) = (ctx.units, ctx.nominal.get(course as usize - 1)) {
-            if thickness.0 > UNIT_MISTAKE_FACTOR * nominal.0 {
-                let tu = units.thickness_unit();
-                return Err(self.range(
-                    line,
-                    ti,
-                    format!("{raw} {unit_name}"),
-                    format!(
-                        "is more than 3 x the nominal {:.3} {tu} of course {course}: a unit \
+        if let (Some(units), Some(nominal)) = (ctx.units, ctx.nominal.get(course as usize - 1))
+            && thickness.0 > UNIT_MISTAKE_FACTOR * nominal.0
+        {
+            return Err(self.range(
+                line,
+                ti,
+                format!("{raw} {unit_name}"),
+                format!(
+                    "is more than 3 x the nominal {} of course {course}: a unit \
                          mistake? name the column thickness_mm or thickness_in to say the unit",
-                        nominal.0
-                    ),
-                ));
-            }
+                    Shown::thickness(*nominal, units)
+                ),
+            ));
         }
 
         // optional columns
         let point = match cols.point {
-            Some(i) => Some(self.text(record, i, line)?).filter(|s| !s.is_empty()).map(Box::from),
+            Some(i) => Some(self.text(record, i, line)?)
+                .filter(|s| !s.is_empty())
+                .map(Box::from),
             None => None,
         };
         let elevation = match cols.elevation {
@@ -462,24 +518,29 @@ impl RowParser<'_> {
                 match self.number(record, i, line, &expected)? {
                     None => None,
                     Some(v) if v < 0.0 => {
-                        return Err(self.range(line, i, format!("{v} {unit_name}"), format!("is negative, expected {expected}")));
+                        return Err(self.range(
+                            line,
+                            i,
+                            format!("{v} {unit_name}"),
+                            format!("is negative, expected {expected}"),
+                        ));
                     }
                     Some(v) => {
                         let e = convert_length(v, suffix, ctx.units);
-                        if let (Some(units), Some(shell)) = (ctx.units, ctx.shell_height) {
-                            if e.0 > shell.0 * 1.0001 {
-                                let lu = units.length_unit();
-                                return Err(self.range(
-                                    line,
-                                    i,
-                                    format!("{v} {unit_name}"),
-                                    format!(
-                                        "is above the shell height {} {lu}: a unit mistake? name the \
+                        if let (Some(units), Some(shell)) = (ctx.units, ctx.shell_height)
+                            && e.0 > shell.0 * 1.0001
+                        {
+                            let lu = units.length_unit();
+                            return Err(self.range(
+                                line,
+                                i,
+                                format!("{v} {unit_name}"),
+                                format!(
+                                    "is above the shell height {} {lu}: a unit mistake? name the \
                                          column elevation_m or elevation_ft to say the unit",
-                                        shell.0
-                                    ),
-                                ));
-                            }
+                                    shell.0
+                                ),
+                            ));
                         }
                         Some(e)
                     }
@@ -492,13 +553,20 @@ impl RowParser<'_> {
                 None => None,
                 Some(a) if (0.0..=360.0).contains(&a) => Some(a),
                 Some(a) => {
-                    return Err(self.range(line, i, a.to_string(), "is outside 0 to 360 degrees".into()));
+                    return Err(self.range(
+                        line,
+                        i,
+                        a.to_string(),
+                        "is outside 0 to 360 degrees".into(),
+                    ));
                 }
             },
             None => None,
         };
         let note = match cols.note {
-            Some(i) => Some(self.text(record, i, line)?).filter(|s| !s.is_empty()).map(Box::from),
+            Some(i) => Some(self.text(record, i, line)?)
+                .filter(|s| !s.is_empty())
+                .map(Box::from),
             None => None,
         };
         Ok(Reading {
@@ -519,10 +587,10 @@ impl RowParser<'_> {
     fn date(&mut self, record: &csv::ByteRecord, line: u64) -> Result<NaiveDate, InputError> {
         let i = self.cols.date;
         let raw = record.get(i).unwrap_or(&[]);
-        if let Some((text, date)) = &self.date_cache {
-            if text.as_slice() == raw {
-                return Ok(*date);
-            }
+        if let Some((text, date)) = &self.date_cache
+            && text.as_slice() == raw
+        {
+            return Ok(*date);
         }
         let s = self.text(record, i, line)?;
         if s.is_empty() {
@@ -537,27 +605,45 @@ impl RowParser<'_> {
                 }
             });
         if !iso_shape {
-            return Err(self.bad(line, i, s, "an ISO date, expected YYYY-MM-DD (e.g. 2024-05-17)".into()));
+            return Err(self.bad(
+                line,
+                i,
+                s,
+                "an ISO date",
+                "YYYY-MM-DD, e.g. 2024-05-17".into(),
+            ));
         }
-        let date = NaiveDate::parse_from_str(s, "%Y-%m-%d")
-            .map_err(|_| self.bad(line, i, s, "a calendar date (that day does not exist)".into()))?;
+        let date = NaiveDate::parse_from_str(s, "%Y-%m-%d").map_err(|_| {
+            self.bad(
+                line,
+                i,
+                s,
+                "a calendar date",
+                "a day that exists, as YYYY-MM-DD".into(),
+            )
+        })?;
         if date > self.ctx.today {
             return Err(self.range(
                 line,
                 i,
                 s.to_string(),
-                format!("is after today ({}), expected the date the survey was made", self.ctx.today),
+                format!(
+                    "is after today ({}), expected the date the survey was made",
+                    self.ctx.today
+                ),
             ));
         }
-        if let Some(since) = self.ctx.in_service_since {
-            if date < since {
-                return Err(self.range(
-                    line,
-                    i,
-                    s.to_string(),
-                    format!("is before the tank went into service ({since}, in_service_since in tank.toml)"),
-                ));
-            }
+        if let Some(since) = self.ctx.in_service_since
+            && date < since
+        {
+            return Err(self.range(
+                line,
+                i,
+                s.to_string(),
+                format!(
+                    "is before the tank went into service ({since}, in_service_since in tank.toml)"
+                ),
+            ));
         }
         self.date_cache = Some((raw.to_vec(), date));
         Ok(date)

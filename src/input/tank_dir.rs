@@ -10,7 +10,7 @@ use super::survey_csv::{SurveyContext, SurveyFileInfo, read_survey};
 use super::tank_file::parse_tank;
 use crate::model::reading::{Reading, ReadingSet};
 use crate::model::tank::Tank;
-use crate::model::warning::Warning;
+use crate::model::warning::{Shown, Warning};
 
 /// Name of the tank file in a tank folder.
 pub const TANK_FILE: &str = "tank.toml";
@@ -38,8 +38,12 @@ pub fn display_join(dir: &Path, name: &str) -> String {
 }
 
 fn read_bytes(path: &Path) -> Result<Vec<u8>, InputError> {
-    std::fs::read(path)
-        .map_err(|e| InputError::new(Location::file(path.display().to_string()), InputErrorKind::Io(e)))
+    std::fs::read(path).map_err(|e| {
+        InputError::new(
+            Location::file(path.display().to_string()),
+            InputErrorKind::Io(e),
+        )
+    })
 }
 
 /// Reads and validates `dir/tank.toml`.
@@ -47,7 +51,10 @@ pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
     let path = dir.join(TANK_FILE);
     let shown = path.display().to_string();
     if !path.is_file() {
-        return Err(InputError::new(Location::file(dir.display().to_string()), InputErrorKind::NoTankFile));
+        return Err(InputError::new(
+            Location::file(dir.display().to_string()),
+            InputErrorKind::NoTankFile,
+        ));
     }
     let bytes = read_bytes(&path)?;
     let text = String::from_utf8(bytes).map_err(|e| {
@@ -68,12 +75,20 @@ pub fn survey_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
     if !folder.is_dir() {
         return Ok(Vec::new());
     }
-    let entries = std::fs::read_dir(&folder)
-        .map_err(|e| InputError::new(Location::file(folder.display().to_string()), InputErrorKind::Io(e)))?;
+    let entries = std::fs::read_dir(&folder).map_err(|e| {
+        InputError::new(
+            Location::file(folder.display().to_string()),
+            InputErrorKind::Io(e),
+        )
+    })?;
     let mut files = Vec::new();
     for entry in entries {
-        let entry = entry
-            .map_err(|e| InputError::new(Location::file(folder.display().to_string()), InputErrorKind::Io(e)))?;
+        let entry = entry.map_err(|e| {
+            InputError::new(
+                Location::file(folder.display().to_string()),
+                InputErrorKind::Io(e),
+            )
+        })?;
         let path = entry.path();
         let is_csv = path
             .extension()
@@ -130,7 +145,9 @@ pub fn remove_repeats(tank: &Tank, set: &mut ReadingSet) -> Result<Vec<Warning>,
     let mut first: HashMap<(&str, NaiveDate), usize> = HashMap::new();
     let mut repeats: Vec<(usize, usize)> = Vec::new();
     for (i, r) in set.readings.iter().enumerate() {
-        let Some(point) = r.point.as_deref() else { continue };
+        let Some(point) = r.point.as_deref() else {
+            continue;
+        };
         match first.get(&(point, r.date)) {
             None => {
                 first.insert((point, r.date), i);
@@ -142,7 +159,6 @@ pub fn remove_repeats(tank: &Tank, set: &mut ReadingSet) -> Result<Vec<Warning>,
     let mut drop = vec![false; set.readings.len()];
     for (j, i) in repeats {
         let (a, b): (&Reading, &Reading) = (&set.readings[j], &set.readings[i]);
-        let unit = tank.units.thickness_unit();
         if a.thickness != b.thickness || a.course != b.course {
             return Err(InputError::new(
                 Location::line(set.file_of(b.origin), b.origin.line),
@@ -150,8 +166,16 @@ pub fn remove_repeats(tank: &Tank, set: &mut ReadingSet) -> Result<Vec<Warning>,
                     point: b.point.as_deref().unwrap_or("").to_string(),
                     date: b.date,
                     first: set.locate(a.origin),
-                    first_value: format!("{} {unit} (course {})", a.thickness.0, a.course),
-                    value: format!("{} {unit} (course {})", b.thickness.0, b.course),
+                    first_value: format!(
+                        "{} (course {})",
+                        Shown::thickness(a.thickness, tank.units),
+                        a.course
+                    ),
+                    value: format!(
+                        "{} (course {})",
+                        Shown::thickness(b.thickness, tank.units),
+                        b.course
+                    ),
                 },
             ));
         }

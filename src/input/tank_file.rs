@@ -17,9 +17,7 @@ use super::error::{InputError, InputErrorKind, Location, nearest};
 use crate::calc::constants::MAX_SPECIFIC_GRAVITY;
 use crate::calc::materials::{find_grade, grade_names};
 use crate::calc::units::{Length, Stress, Thickness, UnitSystem};
-use crate::model::tank::{
-    Construction, Course, Material, RateBasis, Tank, ThicknessBasis,
-};
+use crate::model::tank::{Construction, Course, Material, RateBasis, Tank, ThicknessBasis};
 
 /// Keys of the top level.
 pub const TANK_KEYS: &[&str] = &[
@@ -56,9 +54,11 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
 
     let id = top.required_string("id", "a short tag, e.g. \"T-101\"")?;
     if id.get_ref().trim().is_empty() {
-        return Err(top.invalid(&id, "key \"id\"", "is empty, expected a short tag"));
+        return Err(top.invalid(&id, "id", "is empty, expected a short tag"));
     }
-    let name = top.optional_string("name", "a text")?.map(Spanned::into_inner);
+    let name = top
+        .optional_string("name", "a text")?
+        .map(Spanned::into_inner);
     let units_v = top.required_string("units", "\"SI\" or \"USC\"")?;
     let units = match units_v.get_ref().to_ascii_uppercase().as_str() {
         "SI" => UnitSystem::Si,
@@ -131,14 +131,18 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
                     match RateBasis::ALL.iter().find(|b| b.name() == lower) {
                         Some(b) => *b,
                         None => {
-                            let names: Vec<&str> = RateBasis::ALL.iter().map(|b| b.name()).collect();
+                            let names: Vec<&str> =
+                                RateBasis::ALL.iter().map(|b| b.name()).collect();
                             let hint = nearest(&lower, names.iter().copied())
                                 .map(|s| format!(" (did you mean \"{s}\"?)"))
                                 .unwrap_or_default();
                             return Err(a.invalid(
                                 &v,
                                 "rate_basis",
-                                &format!("is not known{hint}, expected one of: {}", names.join(", ")),
+                                &format!(
+                                    "is not known{hint}, expected one of: {}",
+                                    names.join(", ")
+                                ),
                             ));
                         }
                     }
@@ -345,14 +349,18 @@ impl<'d, 'i> Table<'d, 'i> {
 
     fn key_name(&self, key: &str) -> String {
         match &self.name {
-            Some(t) => format!("{t}.{key}"),
-            None => key.to_string(),
+            Some(t) => format!("{t}, key \"{key}\""),
+            None => format!("key \"{key}\""),
         }
     }
 
     fn missing(&self, key: &'static str) -> InputError {
+        let location = match self.name {
+            Some(_) => self.doc.at(&self.span),
+            None => Location::file(self.doc.path),
+        };
         InputError::new(
-            self.doc.at(&self.span),
+            location,
             InputErrorKind::MissingKey {
                 key,
                 table: self.name.clone(),
@@ -388,7 +396,9 @@ impl<'d, 'i> Table<'d, 'i> {
         key: &str,
         expected: &str,
     ) -> Result<Option<Spanned<String>>, InputError> {
-        let Some(v) = self.get(key) else { return Ok(None) };
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
         match v.get_ref() {
             DeValue::String(s) => Ok(Some(Spanned::new(v.span(), s.to_string()))),
             _ => Err(self.wrong_type(key, v, expected)),
@@ -404,14 +414,24 @@ impl<'d, 'i> Table<'d, 'i> {
             .ok_or_else(|| self.missing(key))
     }
 
-    fn optional_number(&self, key: &str, expected: &str) -> Result<Option<Spanned<f64>>, InputError> {
-        let Some(v) = self.get(key) else { return Ok(None) };
+    fn optional_number(
+        &self,
+        key: &str,
+        expected: &str,
+    ) -> Result<Option<Spanned<f64>>, InputError> {
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
         match v.get_ref() {
             DeValue::Integer(_) | DeValue::Float(_) => {
                 let n = f64::deserialize(ValueDeserializer::from(v.clone()))
                     .map_err(|_| self.wrong_type(key, v, expected))?;
                 if !n.is_finite() {
-                    return Err(self.invalid(v, key, &format!("is not finite, expected {expected}")));
+                    return Err(self.invalid(
+                        v,
+                        key,
+                        &format!("is not finite, expected {expected}"),
+                    ));
                 }
                 Ok(Some(Spanned::new(v.span(), n)))
             }
@@ -419,7 +439,11 @@ impl<'d, 'i> Table<'d, 'i> {
         }
     }
 
-    fn required_number(&self, key: &'static str, expected: &str) -> Result<Spanned<f64>, InputError> {
+    fn required_number(
+        &self,
+        key: &'static str,
+        expected: &str,
+    ) -> Result<Spanned<f64>, InputError> {
         self.optional_number(key, expected)?
             .ok_or_else(|| self.missing(key))
     }
@@ -428,7 +452,11 @@ impl<'d, 'i> Table<'d, 'i> {
         if *v.get_ref() > 0.0 {
             Ok(())
         } else {
-            Err(self.invalid(v, key, &format!("is not positive, expected a number of {unit} above 0")))
+            Err(self.invalid(
+                v,
+                key,
+                &format!("is not positive, expected a number of {unit} above 0"),
+            ))
         }
     }
 
@@ -446,7 +474,9 @@ impl<'d, 'i> Table<'d, 'i> {
     }
 
     fn optional_date(&self, key: &str) -> Result<Option<NaiveDate>, InputError> {
-        let Some(v) = self.get(key) else { return Ok(None) };
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
         let expected = "a date, e.g. 1991-05-01";
         let date = match v.get_ref() {
             DeValue::Datetime(dt) => match (dt.date, dt.time) {
@@ -460,7 +490,11 @@ impl<'d, 'i> Table<'d, 'i> {
         };
         match date {
             Some(d) => Ok(Some(d)),
-            None => Err(self.invalid(v, key, &format!("is not a calendar date, expected {expected}"))),
+            None => Err(self.invalid(
+                v,
+                key,
+                &format!("is not a calendar date, expected {expected}"),
+            )),
         }
     }
 
@@ -469,15 +503,25 @@ impl<'d, 'i> Table<'d, 'i> {
         key: &str,
         known: &[&str],
     ) -> Result<Option<Table<'d, 'i>>, InputError> {
-        let Some(v) = self.get(key) else { return Ok(None) };
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
         match v.get_ref() {
-            DeValue::Table(t) => Table::new(self.doc, t, v.span(), Some(format!("[{key}]")), known).map(Some),
+            DeValue::Table(t) => {
+                Table::new(self.doc, t, v.span(), Some(format!("[{key}]")), known).map(Some)
+            }
             _ => Err(self.wrong_type(key, v, &format!("a table [{key}]"))),
         }
     }
 
-    fn array_of_tables(&self, key: &'static str, known: &[&str]) -> Result<Vec<Table<'d, 'i>>, InputError> {
-        let Some(v) = self.get(key) else { return Err(self.missing(key)) };
+    fn array_of_tables(
+        &self,
+        key: &'static str,
+        known: &[&str],
+    ) -> Result<Vec<Table<'d, 'i>>, InputError> {
+        let Some(v) = self.get(key) else {
+            return Err(self.missing(key));
+        };
         let expected = format!("[[{key}]] tables, one per course, bottom course first");
         let DeValue::Array(items) = v.get_ref() else {
             return Err(self.wrong_type(key, v, &expected));
@@ -489,7 +533,7 @@ impl<'d, 'i> Table<'d, 'i> {
                     self.doc,
                     t,
                     item.span(),
-                    Some(format!("[[{key}]] {}", i + 1)),
+                    Some(format!("{key} {}", i + 1)),
                     known,
                 )?),
                 _ => return Err(self.wrong_type(key, item, &expected)),

@@ -275,10 +275,9 @@ impl fmt::Display for Warning {
                 "allowable level covers measured courses only: course {} has no readings",
                 course_list(courses)
             ),
-            Warning::ReadingsAfterAsOf { count, as_of } => write!(
-                f,
-                "{count} readings dated after {as_of} left out (--as-of)"
-            ),
+            Warning::ReadingsAfterAsOf { count, as_of } => {
+                write!(f, "{count} readings dated after {as_of} left out (--as-of)")
+            }
         }
     }
 }

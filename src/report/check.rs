@@ -81,7 +81,10 @@ pub fn render_text(items: &[Checked]) -> String {
                     o,
                     "{b}{dir}{b:#}: tank {}{}, {}, {} courses, D {} {}",
                     tank.id,
-                    tank.name.as_deref().map(|n| format!(" ({n})")).unwrap_or_default(),
+                    tank.name
+                        .as_deref()
+                        .map(|n| format!(" - {n}"))
+                        .unwrap_or_default(),
                     tank.units,
                     tank.courses.len(),
                     tank.diameter.0,
@@ -93,7 +96,11 @@ pub fn render_text(items: &[Checked]) -> String {
                     files.len(),
                     if files.len() == 1 { "" } else { "s" },
                     screening.dates().len(),
-                    if screening.dates().len() == 1 { "" } else { "s" }
+                    if screening.dates().len() == 1 {
+                        ""
+                    } else {
+                        "s"
+                    }
                 );
                 for f in files {
                     let _ = writeln!(
@@ -142,7 +149,11 @@ pub fn render_text(items: &[Checked]) -> String {
                     "{b}{}{b:#}: {readings} readings, {} survey date{}, courses {}, delimiter {}",
                     info.path,
                     screening.dates().len(),
-                    if screening.dates().len() == 1 { "" } else { "s" },
+                    if screening.dates().len() == 1 {
+                        ""
+                    } else {
+                        "s"
+                    },
                     courses.join(", "),
                     delimiter_name(info.delimiter)
                 );
@@ -153,8 +164,11 @@ pub fn render_text(items: &[Checked]) -> String {
                      checks were not made"
                 );
             }
-            Checked::Failed { message, .. } => {
-                let _ = writeln!(o, "error: {message}");
+            Checked::Failed { path, .. } => {
+                let _ = writeln!(
+                    o,
+                    "{b}{path}{b:#}: not readable (the error is on standard error)"
+                );
             }
         }
         o.push('\n');

@@ -11,6 +11,8 @@ pub fn courses_csv(a: &Assessment, v: &View) -> Result<String, csv::Error> {
     for c in &a.courses {
         w.serialize(course(c, v))?;
     }
-    let bytes = w.into_inner().map_err(|e| csv::Error::from(e.into_error()))?;
+    let bytes = w
+        .into_inner()
+        .map_err(|e| csv::Error::from(e.into_error()))?;
     Ok(String::from_utf8_lossy(&bytes).into_owned())
 }

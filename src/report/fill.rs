@@ -7,7 +7,7 @@ use serde::Serialize;
 use crate::calc::fill_height::FillScenario;
 use crate::model::result::Assessment;
 use crate::report::caution::CAUTION;
-use crate::report::text::{bold, tank_title, wrap, WRAP};
+use crate::report::text::{WRAP, bold, tank_title, wrap};
 use crate::report::view::{View, sig6};
 
 /// Terminal text.
@@ -28,9 +28,17 @@ pub fn render_text(a: &Assessment, scenarios: &[FillScenario], years: f64, v: &V
         "{b}{:>6}  {:<14}  {:>9}  {:>6}  {:>9}  {:>6}{b:#}",
         "SG", "product", "now", "course", "later", "course"
     );
-    let _ = writeln!(o, "{:>6}  {:<14}  {:>9}  {:>6}  {:>9}  {:>6}", "", "", lu, "", lu, "");
+    let _ = writeln!(
+        o,
+        "{:>6}  {:<14}  {:>9}  {:>6}  {:>9}  {:>6}",
+        "", "", lu, "", lu, ""
+    );
     for s in scenarios {
-        let label = if s.stored_product { "stored product" } else { "what-if" };
+        let label = if s.stored_product {
+            "stored product"
+        } else {
+            "what-if"
+        };
         let now = s.now.map_or(("-".to_string(), "-".to_string()), |f| {
             (format!("{:.2}", v.len(f.level)), f.course.to_string())
         });
@@ -55,8 +63,14 @@ pub fn render_text(a: &Assessment, scenarios: &[FillScenario], years: f64, v: &V
         v.len_text(a.tank.max_fill_height),
         v.len_text(a.tank.shell_height())
     );
-    if scenarios.iter().any(|s| s.later.is_none() && s.now.is_some()) {
-        let _ = writeln!(o, "'later' is not computed where a course has no corrosion rate.");
+    if scenarios
+        .iter()
+        .any(|s| s.later.is_none() && s.now.is_some())
+    {
+        let _ = writeln!(
+            o,
+            "'later' is not computed where a course has no corrosion rate."
+        );
     }
     o.push('\n');
     o.push_str(&wrap(&format!("Caution: {CAUTION}"), WRAP, ""));
@@ -153,6 +167,8 @@ pub fn render_csv(scenarios: &[FillScenario], years: f64, v: &View) -> Result<St
             years: sig6(years),
         })?;
     }
-    let bytes = w.into_inner().map_err(|e| csv::Error::from(e.into_error()))?;
+    let bytes = w
+        .into_inner()
+        .map_err(|e| csv::Error::from(e.into_error()))?;
     Ok(String::from_utf8_lossy(&bytes).into_owned())
 }

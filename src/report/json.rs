@@ -194,15 +194,18 @@ pub fn document(a: &Assessment, v: &View) -> JsonResult {
         },
         warnings: a.warnings.iter().map(ToString::to_string).collect(),
         caution: CAUTION,
-        hot_spots: a.hot_spots.iter().map(|&i| point(&a.points[i], v)).collect(),
+        hot_spots: a
+            .hot_spots
+            .iter()
+            .map(|&i| point(&a.points[i], v))
+            .collect(),
     }
 }
 
 /// Pretty JSON text with a final newline.
 pub fn render(a: &Assessment, v: &View) -> String {
-    let mut s = serde_json::to_string_pretty(&document(a, v)).unwrap_or_else(|e| {
-        format!("{{\"error\": \"JSON serialisation failed: {e}\"}}")
-    });
+    let mut s = serde_json::to_string_pretty(&document(a, v))
+        .unwrap_or_else(|e| format!("{{\"error\": \"JSON serialisation failed: {e}\"}}"));
     s.push('\n');
     s
 }

@@ -58,7 +58,11 @@ pub fn bullet(text: &str) -> String {
 /// The one-line title of a tank.
 pub fn tank_title(a: &Assessment, v: &View) -> String {
     let t = &a.tank;
-    let name = t.name.as_deref().map(|n| format!(" - {n}")).unwrap_or_default();
+    let name = t
+        .name
+        .as_deref()
+        .map(|n| format!(" - {n}"))
+        .unwrap_or_default();
     format!(
         "Tank {}{name}\nD {}, {} courses, shell height {}, SG {}, max fill height {}, {} construction",
         t.id,
@@ -119,7 +123,11 @@ pub fn render(a: &Assessment, v: &View, quiet: bool) -> String {
     }
     if !a.warnings.is_empty() {
         if quiet {
-            let _ = writeln!(o, "{} warnings (run without --quiet to list them)", a.warnings.len());
+            let _ = writeln!(
+                o,
+                "{} warnings (run without --quiet to list them)",
+                a.warnings.len()
+            );
         } else {
             let _ = writeln!(o, "{b}Warnings ({}){b:#}", a.warnings.len());
             for w in &a.warnings {
@@ -135,9 +143,20 @@ pub fn render(a: &Assessment, v: &View, quiet: bool) -> String {
 /// The per-course table.
 pub fn course_table(a: &Assessment, v: &View) -> String {
     let u = v.to;
-    let headers = ["course", "nominal", "t_actual", "t_min", "rate", "life", "max fill", "status"];
+    let headers = [
+        "course", "nominal", "t_actual", "t_min", "rate", "life", "max fill", "status",
+    ];
     let rate_unit = u.rate_unit();
-    let units = ["", u.thickness_unit(), u.thickness_unit(), u.thickness_unit(), rate_unit, "y", u.length_unit(), ""];
+    let units = [
+        "",
+        u.thickness_unit(),
+        u.thickness_unit(),
+        u.thickness_unit(),
+        rate_unit,
+        "y",
+        u.length_unit(),
+        "",
+    ];
     let td = v.thk_decimals();
     let rd = v.rate_decimals();
     let mut rows: Vec<[String; 8]> = Vec::new();
@@ -186,6 +205,20 @@ pub fn course_table(a: &Assessment, v: &View) -> String {
         };
         let _ = writeln!(o, "{numbers}  {status}");
     }
+    let shell = a.tank.shell_height();
+    let above = a
+        .courses
+        .iter()
+        .filter_map(|c| c.condition.as_ref())
+        .any(|k| k.max_fill_height.value.0 > shell.0);
+    if above {
+        let _ = writeln!(
+            o,
+            "max fill: the liquid level each course alone allows; above the shell height ({}) \
+             it does not limit.",
+            v.len_text(shell)
+        );
+    }
     o
 }
 
@@ -212,7 +245,10 @@ fn hot_spot_lines(a: &Assessment, v: &View) -> Option<String> {
     }
     let mut o = String::new();
     let b = bold();
-    let _ = writeln!(o, "{b}Hot spots{b:#} (monitoring points with the least remaining life)");
+    let _ = writeln!(
+        o,
+        "{b}Hot spots{b:#} (monitoring points with the least remaining life)"
+    );
     for &i in a.hot_spots.iter().take(5) {
         let p = &a.points[i];
         let life = match p.remaining_life {

@@ -36,8 +36,7 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
             .collect();
         out.push(format!(
             "NOT FIT for SG {sg} at {level}: {} below t_min.",
-            join_and(&parts)
-                + if parts.len() == 1 { " is" } else { " are" }
+            join_and(&parts) + if parts.len() == 1 { " is" } else { " are" }
         ));
     }
 
@@ -52,7 +51,9 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
                 .unwrap_or_default();
             match life {
                 RemainingLife::Years(y) if y <= 0.0 => {
-                    out.push(format!("Course {n} governs: no remaining corrosion allowance."));
+                    out.push(format!(
+                        "Course {n} governs: no remaining corrosion allowance."
+                    ));
                 }
                 RemainingLife::Years(y) => {
                     let when = k
@@ -121,7 +122,8 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
     }
 
     // Dates.
-    let due = |d: Option<chrono::NaiveDate>| d.map_or("not computed".to_string(), |d| d.to_string());
+    let due =
+        |d: Option<chrono::NaiveDate>| d.map_or("not computed".to_string(), |d| d.to_string());
     out.push(format!(
         "Next UT thickness survey due {} ({}); next external inspection due {} ({}).",
         due(s.next_ut_inspection),
@@ -135,8 +137,12 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
 /// "3.8-year interval, course 1" and the like.
 pub fn interval_text(i: &TankInterval) -> String {
     match (i.basis, i.course) {
-        (IntervalBasis::NoAllowanceLeft, Some(c)) => format!("now: course {c} has no corrosion allowance left"),
-        (IntervalBasis::NoRateKnown, _) => format!("{}-year default, no rate known", years_text(i.years)),
+        (IntervalBasis::NoAllowanceLeft, Some(c)) => {
+            format!("now: course {c} has no corrosion allowance left")
+        }
+        (IntervalBasis::NoRateKnown, _) => {
+            format!("{}-year default, no rate known", years_text(i.years))
+        }
         (IntervalBasis::Cap, _) => format!("{}-year maximum interval", years_text(i.years)),
         (_, Some(c)) => format!("{}-year interval, set by course {c}", years_text(i.years)),
         (_, None) => format!("{}-year interval", years_text(i.years)),

@@ -42,7 +42,12 @@ impl View {
     }
     /// Thickness with its unit, for sentences.
     pub fn thk_text(&self, v: Thickness) -> String {
-        format!("{:.*} {}", self.thk_decimals(), self.thk(v), self.to.thickness_unit())
+        format!(
+            "{:.*} {}",
+            self.thk_decimals(),
+            self.thk(v),
+            self.to.thickness_unit()
+        )
     }
     /// Rate with its unit (and mpy in USC), for sentences.
     pub fn rate_text(&self, v: Rate) -> String {

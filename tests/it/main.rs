@@ -1,0 +1,11 @@
+//! Integration tests: the real binary on real files. One test binary, one file per
+//! topic; `support` holds the small builder used everywhere.
+
+mod assess;
+mod check;
+mod errors;
+mod fill_height;
+mod properties;
+mod reference;
+mod samples;
+mod support;

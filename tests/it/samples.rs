@@ -1,0 +1,123 @@
+//! The sample tanks (invented demo data): output snapshots (insta) for every format,
+//! and the README kept true: its commands run, and every output block it shows is
+//! what the binary prints today.
+
+use crate::support::{root, strake};
+
+const SAMPLES: [&str; 3] = ["kestrel-t12", "kestrel-t03", "kestrel-t07"];
+
+fn sample_arg(name: &str) -> String {
+    format!("sample-inspections/{name}")
+}
+
+#[test]
+fn assess_snapshots() {
+    for name in SAMPLES {
+        let dir = sample_arg(name);
+        for (format, ext) in [("text", "txt"), ("json", "json"), ("csv", "csv")] {
+            let run = strake(["assess", &dir, "--format", format]);
+            assert_eq!(run.code, 0, "{name} {format}: {}", run.stderr);
+            assert!(run.stderr.is_empty(), "{}", run.stderr);
+            insta::assert_snapshot!(format!("assess-{name}-{ext}"), run.stdout);
+        }
+    }
+}
+
+#[test]
+fn fill_height_and_check_snapshots() {
+    let run = strake([
+        "fill-height",
+        "sample-inspections/kestrel-t12",
+        "--sg",
+        "1.0",
+        "--sg",
+        "1.2",
+    ]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    insta::assert_snapshot!("fill-height-kestrel-t12", run.stdout);
+    let dirs: Vec<String> = SAMPLES.iter().map(|s| sample_arg(s)).collect();
+    let run = strake(std::iter::once("check".to_string()).chain(dirs));
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    insta::assert_snapshot!("check-samples", run.stdout);
+}
+
+/// Same input, byte-identical output.
+#[test]
+fn output_is_deterministic() {
+    let a = strake([
+        "assess",
+        "sample-inspections/kestrel-t12",
+        "--format",
+        "json",
+    ]);
+    let b = strake([
+        "assess",
+        "sample-inspections/kestrel-t12",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(a.stdout, b.stdout);
+}
+
+fn readme() -> String {
+    std::fs::read_to_string(root().join("README.md")).expect("README.md")
+}
+
+/// Every `cargo run --release -- ARGS` line of the README runs and succeeds.
+#[test]
+fn readme_commands_run() {
+    let text = readme();
+    let commands: Vec<&str> = text
+        .lines()
+        .filter_map(|l| l.trim().strip_prefix("cargo run --release -- "))
+        .collect();
+    assert!(!commands.is_empty(), "README shows no command");
+    for c in commands {
+        let run = strake(c.split_whitespace());
+        assert_eq!(run.code, 0, "README command `{c}` failed: {}", run.stderr);
+        assert!(!run.stdout.is_empty());
+    }
+}
+
+/// Each block after `<!-- strake-output: ARGS -->` is exactly what `strake ARGS`
+/// prints now. Set STRAKE_BLESS=1 to rewrite the blocks after a deliberate change.
+#[test]
+fn readme_outputs_are_current() {
+    let text = readme();
+    let marker = "<!-- strake-output: ";
+    let mut out = String::new();
+    let mut rest = text.as_str();
+    let mut stale = Vec::new();
+    let mut blocks = 0;
+    while let Some(i) = rest.find(marker) {
+        let (before, after) = rest.split_at(i);
+        out.push_str(before);
+        let end = after.find(" -->").expect("marker closed");
+        let args = &after[marker.len()..end];
+        let fence = after
+            .find("```text\n")
+            .expect("a ```text block follows the marker");
+        let body_start = fence + "```text\n".len();
+        let body_len = after[body_start..].find("```").expect("block closed");
+        let shown = &after[body_start..body_start + body_len];
+        let run = strake(args.split_whitespace());
+        assert_eq!(run.code, 0, "`strake {args}`: {}", run.stderr);
+        if shown != run.stdout {
+            stale.push(args.to_string());
+        }
+        out.push_str(&after[..body_start]);
+        out.push_str(&run.stdout);
+        rest = &after[body_start + body_len..];
+        blocks += 1;
+    }
+    out.push_str(rest);
+    assert!(blocks >= 2, "README shows at least two outputs");
+    if std::env::var_os("STRAKE_BLESS").is_some() {
+        std::fs::write(root().join("README.md"), out).expect("rewrite README");
+        return;
+    }
+    assert!(
+        stale.is_empty(),
+        "README output blocks are stale for: {stale:?} (run STRAKE_BLESS=1 cargo test readme)"
+    );
+}
