@@ -50,6 +50,17 @@ pub enum Error {
         /// Why.
         source: calc::assess::AssessError,
     },
+    /// The command line is inconsistent in a way clap cannot express (exit 2).
+    #[error("{0}")]
+    Usage(String),
+    /// A shell's design stresses cannot be set (exit 1).
+    #[error("{dir}: {source}")]
+    Design {
+        /// Tank folder.
+        dir: String,
+        /// Why.
+        source: calc::design::DesignStressError,
+    },
     /// Rendering CSV failed.
     #[error("cannot render CSV: {0}")]
     Render(#[source] csv::Error),
@@ -59,6 +70,13 @@ pub enum Error {
 }
 
 impl Error {
+    /// The process exit code of this error.
+    pub fn code(&self) -> u8 {
+        match self {
+            Error::Usage(_) => 2,
+            _ => 1,
+        }
+    }
     /// True when standard output was closed by the reader (`strake ... | head`).
     pub fn is_broken_pipe(&self) -> bool {
         matches!(self, Error::Output(e) if e.kind() == std::io::ErrorKind::BrokenPipe)
@@ -72,5 +90,6 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::Check(a) => cmd::check::run(a, g),
         Command::Assess(a) => cmd::assess::run(a, g),
         Command::FillHeight(a) => cmd::fill_height::run(a, g),
+        Command::Required(a) => cmd::required::run(a, g),
     }
 }

@@ -298,6 +298,8 @@ pub fn assess(
         })
         .collect();
     let hot = hot_spots(&points);
+    let hydrotest = super::hydrotest::hydrotest(&tank, &courses);
+    let variable_point = super::hydrotest::variable_point_comparison(&tank, &courses);
 
     Ok(Assessment {
         tank,
@@ -310,6 +312,8 @@ pub fn assess(
         points,
         hot_spots: hot,
         warnings,
+        hydrotest,
+        variable_point,
     })
 }
 

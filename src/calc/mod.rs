@@ -6,13 +6,17 @@
 
 pub mod assess;
 pub mod constants;
+pub mod design;
 pub mod fill_height;
+pub mod hydrotest;
 pub mod life;
 pub mod materials;
 pub mod points;
 pub mod rates;
+pub mod required;
 pub mod screen;
 pub mod shell;
 pub mod stress;
 pub mod survey;
 pub mod units;
+pub mod vdp;

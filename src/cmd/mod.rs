@@ -3,6 +3,7 @@
 pub mod assess;
 pub mod check;
 pub mod fill_height;
+pub mod required;
 
 use std::path::Path;
 

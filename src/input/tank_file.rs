@@ -43,6 +43,9 @@ pub const COURSE_KEYS: &[&str] = &[
     "yield_strength",
     "tensile_strength",
     "joint_efficiency",
+    "corrosion_allowance",
+    "design_stress",
+    "test_stress",
 ];
 
 /// Parses and validates the text of a tank file; `path` is used in messages.
@@ -175,6 +178,28 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             None => None,
             Some(e) => Some(c.efficiency(&e)?),
         };
+        let ca = match c.optional_number("corrosion_allowance", &format!("a number in {tu}"))? {
+            None => 0.0,
+            Some(v) if *v.get_ref() >= 0.0 => *v.get_ref(),
+            Some(v) => {
+                return Err(c.invalid(
+                    &v,
+                    "corrosion_allowance",
+                    &format!("is negative, expected 0 or more {tu}"),
+                ));
+            }
+        };
+        let stress = |key: &str| -> Result<Option<Stress>, InputError> {
+            match c.optional_number(key, &format!("a number in {su}"))? {
+                None => Ok(None),
+                Some(v) => {
+                    c.positive(&v, key, su)?;
+                    Ok(Some(Stress(*v.get_ref())))
+                }
+            }
+        };
+        let design_stress = stress("design_stress")?;
+        let test_stress = stress("test_stress")?;
         courses.push(Course {
             number,
             height: Length(*height.get_ref()),
@@ -182,6 +207,9 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             nominal_thickness: Thickness(*nominal.get_ref()),
             material,
             joint_efficiency: e,
+            corrosion_allowance: Thickness(ca),
+            design_stress,
+            test_stress,
         });
         bottom += *height.get_ref();
     }

@@ -2,6 +2,7 @@
 //! `calc` consumes, and the result model that `calc` produces and `report` renders.
 
 pub mod reading;
+pub mod required;
 pub mod result;
 pub mod tank;
 pub mod warning;

@@ -184,4 +184,8 @@ pub struct Assessment {
     pub hot_spots: Vec<usize>,
     /// Findings and data remarks.
     pub warnings: Vec<Warning>,
+    /// Hydrostatic test heights (API 653 4.3.3.2).
+    pub hydrotest: crate::calc::hydrotest::Hydrotest,
+    /// For tanks over the one-foot limit: the variable-design-point comparison.
+    pub variable_point: Option<crate::calc::hydrotest::VariablePointComparison>,
 }

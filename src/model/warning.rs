@@ -156,6 +156,31 @@ pub enum Warning {
         /// Courses without readings.
         courses: Vec<u32>,
     },
+    /// The one-foot method is used beyond its diameter limit.
+    OneFootBeyondLimit {
+        /// Diameter as shown.
+        diameter: String,
+        /// Limit as shown.
+        limit: String,
+    },
+    /// The variable-design-point method does not apply (L / H over its limit).
+    VariablePointNotApplicable {
+        /// L / H.
+        ratio: f64,
+        /// The limit.
+        limit: f64,
+    },
+    /// A course's nominal thickness is below what a method requires.
+    NominalBelowRequired {
+        /// Course.
+        course: u32,
+        /// Nominal.
+        nominal: Shown,
+        /// Required.
+        required: Shown,
+        /// Which method.
+        method: &'static str,
+    },
     /// Readings after the `--as-of` date were left out.
     ReadingsAfterAsOf {
         /// How many.
@@ -278,6 +303,28 @@ impl fmt::Display for Warning {
             Warning::ReadingsAfterAsOf { count, as_of } => {
                 write!(f, "{count} readings dated after {as_of} left out (--as-of)")
             }
+            Warning::OneFootBeyondLimit { diameter, limit } => write!(
+                f,
+                "D {diameter} is over the one-foot method's limit of {limit} (API 650 5.6.3.1): \
+                 its thicknesses are shown for comparison only; the variable-design-point \
+                 method applies"
+            ),
+            Warning::VariablePointNotApplicable { ratio, limit } => write!(
+                f,
+                "variable-design-point method not applied: L/H = {ratio:.1} is over its limit \
+                 {limit:.1} (API 650 5.6.4.1); use the one-foot method (D within its limit) or \
+                 an elastic analysis"
+            ),
+            Warning::NominalBelowRequired {
+                course,
+                nominal,
+                required,
+                method,
+            } => write!(
+                f,
+                "course {course}: nominal {nominal} is below the {required} required by the \
+                 {method} method"
+            ),
         }
     }
 }

@@ -52,6 +52,9 @@ pub struct JsonCourse {
     max_fill_height_next: Option<f64>,
     ut_interval_years: Option<f64>,
     external_interval_years: Option<f64>,
+    hydrotest_stress: Option<f64>,
+    hydrotest_height: Option<f64>,
+    t_min_variable_point: Option<f64>,
 }
 
 /// Tank block (contract fields, then extras).
@@ -72,6 +75,8 @@ pub struct JsonTank {
     operating_fill_height: f64,
     specific_gravity: f64,
     below_minimum: Vec<u32>,
+    hydrotest_height: Option<f64>,
+    hydrotest_height_course: Option<u32>,
 }
 
 /// One monitoring point.
@@ -119,7 +124,14 @@ fn life_years(l: RemainingLife) -> Option<f64> {
 }
 
 /// The course record (shared with the CSV output).
-pub fn course(c: &CourseResult, v: &View) -> JsonCourse {
+pub fn course(a: &Assessment, c: &CourseResult, v: &View) -> JsonCourse {
+    let index = a.courses.iter().position(|x| x.number == c.number);
+    let hydro = index.and_then(|i| a.hydrotest.courses.get(i));
+    let vdp = index.and_then(|i| {
+        a.variable_point
+            .as_ref()
+            .and_then(|p| p.thickness.get(i).copied().flatten())
+    });
     let k = c.condition.as_ref();
     let rate_of = |r: Option<crate::calc::units::Rate>| r.map(|r| sig6(v.rate(r)));
     JsonCourse {
@@ -149,6 +161,11 @@ pub fn course(c: &CourseResult, v: &View) -> JsonCourse {
         max_fill_height_next: k.and_then(|k| k.max_fill_height_next.map(|h| sig6(v.len(h.value)))),
         ut_interval_years: k.map(|k| sig6(k.ut_interval.years)),
         external_interval_years: k.map(|k| sig6(k.external_interval.years)),
+        hydrotest_stress: hydro
+            .and_then(|h| h.stress.as_ref())
+            .map(|s| sig6(v.stress(s.value))),
+        hydrotest_height: hydro.and_then(|h| h.height).map(|h| sig6(v.len(h.value))),
+        t_min_variable_point: vdp.map(|t| sig6(v.thk(t))),
     }
 }
 
@@ -175,7 +192,7 @@ pub fn document(a: &Assessment, v: &View) -> JsonResult {
         tank_id: a.tank.id.clone(),
         as_of: a.as_of.to_string(),
         units: units(v),
-        courses: a.courses.iter().map(|c| course(c, v)).collect(),
+        courses: a.courses.iter().map(|c| course(a, c, v)).collect(),
         tank: JsonTank {
             governing_course: s.governing_course,
             remaining_life_years: s.remaining_life.and_then(life_years),
@@ -191,6 +208,8 @@ pub fn document(a: &Assessment, v: &View) -> JsonResult {
             operating_fill_height: sig6(v.len(a.tank.max_fill_height)),
             specific_gravity: a.tank.specific_gravity,
             below_minimum: s.below_minimum.clone(),
+            hydrotest_height: a.hydrotest.tank.map(|f| sig6(v.len(f.level))),
+            hydrotest_height_course: a.hydrotest.tank.map(|f| f.course),
         },
         warnings: a.warnings.iter().map(ToString::to_string).collect(),
         caution: CAUTION,

@@ -6,6 +6,7 @@ pub mod check;
 pub mod csv_out;
 pub mod fill;
 pub mod json;
+pub mod required;
 pub mod text;
 pub mod verdict;
 pub mod view;

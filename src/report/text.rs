@@ -111,6 +111,7 @@ pub fn render(a: &Assessment, v: &View, quiet: bool) -> String {
     );
     o.push('\n');
     o.push_str(&course_table(a, v));
+    o.push_str(&shell_checks(a, v));
     o.push('\n');
     if !quiet {
         let _ = writeln!(o, "{b}Verdict{b:#}");
@@ -237,6 +238,69 @@ fn row_text(cells: &[&str], widths: &[usize]) -> String {
         }
     }
     s.trim_end().to_string()
+}
+
+/// Hydrotest height and, over the one-foot limit, the variable-design-point comparison.
+fn shell_checks(a: &Assessment, v: &View) -> String {
+    let mut o = String::new();
+    if let Some(h) = a.hydrotest.tank {
+        let shell = a.tank.shell_height();
+        if h.level.0 >= shell.0 {
+            let _ = writeln!(
+                o,
+                "hydrotest (water, API 653 4.3.3.2): to the full shell height {} (course {} would carry {})",
+                v.len_text(shell),
+                h.course,
+                v.len_text(h.level)
+            );
+        } else {
+            let _ = writeln!(
+                o,
+                "hydrotest height (water, API 653 4.3.3.2): {}, set by course {}",
+                v.len_text(h.level),
+                h.course
+            );
+        }
+    }
+    if let Some(p) = &a.variable_point {
+        let ap = &p.applicability;
+        if ap.holds {
+            let list: Vec<String> = a
+                .courses
+                .iter()
+                .zip(&p.thickness)
+                .filter_map(|(c, t)| {
+                    t.map(|t| {
+                        format!(
+                            "{} {:.*} vs {:.*}",
+                            c.number,
+                            v.thk_decimals(),
+                            v.thk(t),
+                            v.thk_decimals(),
+                            v.thk(c.t_min.value)
+                        )
+                    })
+                })
+                .collect();
+            o.push_str(&wrap(
+                &format!(
+                    "comparison only (D over the one-foot limit): variable-design-point \
+                     thickness vs one-foot t_min, {}, by course: {}",
+                    v.to.thickness_unit(),
+                    list.join("; ")
+                ),
+                WRAP,
+                "",
+            ));
+        } else {
+            let _ = writeln!(
+                o,
+                "comparison only: the variable-design-point method does not apply (L/H = {:.1} over {:.1})",
+                ap.ratio, ap.limit
+            );
+        }
+    }
+    o
 }
 
 fn hot_spot_lines(a: &Assessment, v: &View) -> Option<String> {

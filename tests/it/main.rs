@@ -7,5 +7,6 @@ mod errors;
 mod fill_height;
 mod properties;
 mod reference;
+mod required;
 mod samples;
 mod support;

@@ -113,6 +113,9 @@ fn tank(case: &Case, units: UnitSystem) -> (Tank, ReadingSet) {
                     tensile_strength: st(400.0),
                 },
                 joint_efficiency: None,
+                corrosion_allowance: Thickness(0.0),
+                design_stress: None,
+                test_stress: None,
             };
             bottom += h;
             c
