@@ -53,14 +53,6 @@ pub enum Error {
     /// The command line is inconsistent in a way clap cannot express (exit 2).
     #[error("{0}")]
     Usage(String),
-    /// A shell's design stresses cannot be set (exit 1).
-    #[error("{dir}: {source}")]
-    Design {
-        /// Tank folder.
-        dir: String,
-        /// Why.
-        source: calc::design::DesignStressError,
-    },
     /// Rendering CSV failed.
     #[error("cannot render CSV: {0}")]
     Render(#[source] csv::Error),

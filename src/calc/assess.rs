@@ -30,7 +30,7 @@ use crate::model::result::{
     Assessment, CourseCondition, CourseResult, FillLimit, Overrides, SurveyInfo, TankInterval,
     TankSummary,
 };
-use crate::model::tank::Tank;
+use crate::model::tank::{Construction, Material, RateBasis, Tank};
 use crate::model::warning::{Shown, Warning};
 
 /// What-if values and the assessment date.
@@ -172,7 +172,11 @@ pub fn assess(
             let lt = long_term(&basis, course.nominal_thickness, tank.in_service_since);
             let st = short_term(&basis);
             let reg = regression(&basis);
-            let rate = governing_rate(tank.rate_basis, lt.as_ref(), st.as_ref(), reg.as_ref());
+            let governing = governing_rate(tank.rate_basis, lt.as_ref(), st.as_ref(), reg.as_ref());
+            let (rate, rate_missing) = match governing {
+                Ok(r) => (Some(r), None),
+                Err(why) => (None, Some(why)),
+            };
             let n = rate.map(|r| r.value);
             let t_actual = latest.basis;
             let life = remaining_life(t_actual, t_min.value, n);
@@ -190,6 +194,7 @@ pub fn assess(
                 short_term: st,
                 regression: reg,
                 rate,
+                rate_missing,
                 remaining_life: life,
             }
         });
@@ -245,7 +250,7 @@ pub fn assess(
     }
     let governing = measured
         .iter()
-        .filter(|(_, k)| k.remaining_life != RemainingLife::Unknown)
+        .filter(|(_, k)| matches!(k.remaining_life, RemainingLife::Years(_)))
         .min_by(|a, b| {
             a.1.remaining_life
                 .sort_key()
@@ -357,6 +362,13 @@ fn course_warnings(
     out: &mut Vec<Warning>,
 ) {
     let units = tank.units;
+    if tank.construction == Construction::Welded
+        && tank
+            .course(number)
+            .is_some_and(|c| c.material == Material::NotGiven)
+    {
+        out.push(Warning::MaterialNotGiven { course: number });
+    }
     let Some(k) = condition else {
         out.push(Warning::NoReadings { course: number });
         return;
@@ -369,16 +381,20 @@ fn course_warnings(
         });
     }
     match (&k.rate, &k.long_term) {
-        (None, _) => out.push(Warning::NoRate { course: number }),
-        (Some(r), lt) => {
-            if let Some(reason) = r.fallback {
-                out.push(Warning::RateBasisFallback {
+        (None, _) => match (k.rate_missing, tank.rate_basis) {
+            (Some(reason), basis)
+                if basis != RateBasis::Conservative
+                    && (k.long_term.is_some() || k.short_term.is_some()) =>
+            {
+                out.push(Warning::RateBasisUnavailable {
                     course: number,
-                    requested: r.requested,
-                    used: r.used,
+                    basis,
                     reason,
-                });
+                })
             }
+            _ => out.push(Warning::NoRate { course: number }),
+        },
+        (Some(r), lt) => {
             if r.clamped() {
                 out.push(Warning::ApparentThickening {
                     course: number,

@@ -19,6 +19,7 @@ use super::constants::{
     ONE_FOOT_MAX_DIAMETER_FT, ONE_FOOT_MAX_DIAMETER_M, OneFootForm, TEST_TENSILE_FACTOR,
     TEST_YIELD_FACTOR,
 };
+use super::materials::UNKNOWN_GRADE;
 use super::units::{Length, Stress, Thickness, UnitSystem};
 use crate::model::tank::Material;
 
@@ -49,17 +50,6 @@ pub struct DesignStress {
     pub origin: StressOrigin,
 }
 
-/// Why the design stresses of a course cannot be set.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, thiserror::Error)]
-pub enum DesignStressError {
-    /// No material and no stresses given.
-    #[error(
-        "course {0}: no material: give `material` (or `yield_strength` and `tensile_strength`), \
-         or `design_stress` and `test_stress`"
-    )]
-    NoMaterial(u32),
-}
-
 fn from_material(y: Stress, t: Stress, fy: f64, ft: f64) -> DesignStress {
     let yield_term = Stress(fy * y.0);
     let tensile_term = Stress(ft * t.0);
@@ -74,34 +64,36 @@ fn from_material(y: Stress, t: Stress, fy: f64, ft: f64) -> DesignStress {
     }
 }
 
-/// S_d and S_t of a course: the given values, else from the material (API 650 5.6.2).
+/// S_d and S_t of a course: the given values, else from the material (API 650 5.6.2);
+/// a material not given takes the code's properties for a material not known.
 pub fn design_stresses(
     units: UnitSystem,
-    course: u32,
     material: &Material,
     design_given: Option<Stress>,
     test_given: Option<Stress>,
-) -> Result<(DesignStress, DesignStress), DesignStressError> {
-    let yt = match material {
-        Material::Grade(g) => Some((g.yield_strength(units), g.tensile_strength(units))),
+) -> (DesignStress, DesignStress) {
+    let (y, t) = match material {
+        Material::Grade(g) => (g.yield_strength(units), g.tensile_strength(units)),
         Material::Explicit {
             yield_strength,
             tensile_strength,
-        } => Some((*yield_strength, *tensile_strength)),
-        Material::NotGiven => None,
+        } => (*yield_strength, *tensile_strength),
+        Material::NotGiven => (
+            UNKNOWN_GRADE.yield_strength(units),
+            UNKNOWN_GRADE.tensile_strength(units),
+        ),
     };
-    let pick = |given: Option<Stress>, fy: f64, ft: f64| match (given, yt) {
-        (Some(s), _) => Ok(DesignStress {
+    let pick = |given: Option<Stress>, fy: f64, ft: f64| match given {
+        Some(s) => DesignStress {
             value: s,
             origin: StressOrigin::Given,
-        }),
-        (None, Some((y, t))) => Ok(from_material(y, t, fy, ft)),
-        (None, None) => Err(DesignStressError::NoMaterial(course)),
+        },
+        None => from_material(y, t, fy, ft),
     };
-    Ok((
-        pick(design_given, DESIGN_YIELD_FACTOR, DESIGN_TENSILE_FACTOR)?,
-        pick(test_given, TEST_YIELD_FACTOR, TEST_TENSILE_FACTOR)?,
-    ))
+    (
+        pick(design_given, DESIGN_YIELD_FACTOR, DESIGN_TENSILE_FACTOR),
+        pick(test_given, TEST_YIELD_FACTOR, TEST_TENSILE_FACTOR),
+    )
 }
 
 /// Minimum nominal shell thickness for a diameter (API 650 5.6.1.1, from memory).
@@ -187,25 +179,26 @@ mod tests {
     #[test]
     fn a36_design_stresses() {
         let m = Material::Grade(find_grade("A36").expect("grade"));
-        let (sd, st) = design_stresses(UnitSystem::Si, 1, &m, None, None).expect("material");
+        let (sd, st) = design_stresses(UnitSystem::Si, &m, None, None);
         assert!((sd.value.0 - 160.0).abs() < 1e-9);
         assert!((st.value.0 - 400.0 * 3.0 / 7.0).abs() < 1e-9);
-        let (sd, st) = design_stresses(UnitSystem::Usc, 1, &m, None, None).expect("material");
+        let (sd, st) = design_stresses(UnitSystem::Usc, &m, None, None);
         assert!((sd.value.0 - 23_200.0).abs() < 1e-9);
         assert_eq!((st.value.0 / 100.0).round() * 100.0, 24_900.0);
         let given = design_stresses(
             UnitSystem::Si,
-            1,
             &Material::NotGiven,
             Some(Stress(150.0)),
             Some(Stress(160.0)),
-        )
-        .expect("given");
+        );
         assert_eq!(
             (given.0.value, given.1.value),
             (Stress(150.0), Stress(160.0))
         );
-        assert!(design_stresses(UnitSystem::Si, 3, &Material::NotGiven, None, None).is_err());
+        // Not given: the unknown-material properties, Y 205, T 380 MPa:
+        // S_d = min(2/3 x 205 = 136.67, 2/5 x 380 = 152) = 136.67 MPa.
+        let unknown = design_stresses(UnitSystem::Si, &Material::NotGiven, None, None);
+        assert!((unknown.0.value.0 - 205.0 * 2.0 / 3.0).abs() < 1e-9);
     }
 
     /// API 650 5.6.1.1 bands (from memory), at and around their limits.

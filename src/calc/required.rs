@@ -8,34 +8,34 @@
 //! nominal thickness less CA when it is known (a tank folder), else the one-foot
 //! required thickness less CA.
 
-use super::design::{
-    DesignStressError, design_stresses, minimum_nominal, one_foot_applies, one_foot_design,
-};
+use super::design::{design_stresses, minimum_nominal, one_foot_applies, one_foot_design};
 use super::units::{Thickness, UnitSystem};
 use super::vdp::{Condition, VdpCourse, VdpShell, applicability, size_shell};
 use crate::model::required::{RequiredCourse, RequiredShell};
-use crate::model::tank::Tank;
+use crate::model::tank::{Material, Tank};
 use crate::model::warning::{Shown, Warning};
 
 /// Sizes the shell of `tank` for its design liquid level (`max_fill_height`) and
 /// specific gravity. `nominal_known` says whether the tank's nominal thicknesses are
 /// real (a tank folder) or placeholders (an ad-hoc shell).
-pub fn required_shell(
-    tank: &Tank,
-    nominal_known: bool,
-) -> Result<RequiredShell, DesignStressError> {
+pub fn required_shell(tank: &Tank, nominal_known: bool) -> RequiredShell {
     let units = tank.units;
     let d = tank.diameter;
     let g = tank.specific_gravity;
+    let mut warnings = Vec::new();
     let mut stresses = Vec::with_capacity(tank.courses.len());
     for c in &tank.courses {
+        if c.material == Material::NotGiven
+            && (c.design_stress.is_none() || c.test_stress.is_none())
+        {
+            warnings.push(Warning::MaterialNotGiven { course: c.number });
+        }
         stresses.push(design_stresses(
             units,
-            c.number,
             &c.material,
             c.design_stress,
             c.test_stress,
-        )?);
+        ));
     }
     let one_foot: Vec<_> = tank
         .courses
@@ -101,7 +101,6 @@ pub fn required_shell(
         )
     };
 
-    let mut warnings = Vec::new();
     let one_foot_ok = one_foot_applies(units, d);
     if !one_foot_ok {
         let limit = match units {
@@ -168,7 +167,7 @@ pub fn required_shell(
         }
         courses.push(course);
     }
-    Ok(RequiredShell {
+    RequiredShell {
         tank_id: nominal_known.then(|| tank.id.clone()),
         tank_name: tank.name.clone(),
         units,
@@ -179,5 +178,5 @@ pub fn required_shell(
         vdp_applicability: appl,
         courses,
         warnings,
-    })
+    }
 }

@@ -86,7 +86,7 @@ pub struct AllowableStress {
 /// Allowable stress of course `course_number` (1 = bottom) in service.
 ///
 /// `material` is the course's material; for welded tanks `Material::NotGiven` is
-/// treated as not known (the input layer refuses it, so this is a fallback only).
+/// treated as a material not known (the code's default properties).
 pub fn in_service_stress(
     units: UnitSystem,
     construction: Construction,

@@ -1,6 +1,6 @@
 //! `strake required [TANK_DIR | --diameter ...]`.
 
-use super::{Global, display};
+use super::Global;
 use crate::calc::required::required_shell;
 use crate::calc::units::{Length, Stress, Thickness, UnitSystem};
 use crate::cli::{Format, RequiredArgs, SystemArg};
@@ -12,12 +12,11 @@ use crate::{Error, Outcome};
 
 /// Runs the command.
 pub fn run(args: &RequiredArgs, g: Global) -> Result<Outcome, Error> {
-    let (tank, nominal_known, label) = match &args.dir {
-        Some(dir) => (load_tank_file(dir)?, true, display(dir)),
-        None => (ad_hoc(args)?, false, "the shell given".to_string()),
+    let (tank, nominal_known) = match &args.dir {
+        Some(dir) => (load_tank_file(dir)?, true),
+        None => (ad_hoc(args)?, false),
     };
-    let shell = required_shell(&tank, nominal_known)
-        .map_err(|source| Error::Design { dir: label, source })?;
+    let shell = required_shell(&tank, nominal_known);
     let v = View::new(shell.units, g.units);
     let out = match g.format {
         Format::Text => required::render_text(&shell, &v),

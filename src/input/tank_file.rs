@@ -173,7 +173,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
         c.positive(&height, "height", lu)?;
         let nominal = c.required_number("nominal_thickness", &format!("a number in {tu}"))?;
         c.positive(&nominal, "nominal_thickness", tu)?;
-        let material = course_material(c, construction, su)?;
+        let material = course_material(c, su)?;
         let e = match c.optional_number("joint_efficiency", "a number in (0, 1]")? {
             None => None,
             Some(e) => Some(c.efficiency(&e)?),
@@ -241,11 +241,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     })
 }
 
-fn course_material(
-    c: &Table<'_, '_>,
-    construction: Construction,
-    su: &str,
-) -> Result<Material, InputError> {
+fn course_material(c: &Table<'_, '_>, su: &str) -> Result<Material, InputError> {
     let grade = c.optional_string("material", "a grade name, e.g. \"A36\"")?;
     let ys = c.optional_number("yield_strength", &format!("a number in {su}"))?;
     let ts = c.optional_number("tensile_strength", &format!("a number in {su}"))?;
@@ -295,8 +291,7 @@ fn course_material(
         }
         (None, Some(_), None) => Err(c.missing("tensile_strength")),
         (None, None, Some(_)) => Err(c.missing("yield_strength")),
-        (None, None, None) if construction == Construction::Riveted => Ok(Material::NotGiven),
-        (None, None, None) => Err(c.missing("material")),
+        (None, None, None) => Ok(Material::NotGiven),
     }
 }
 

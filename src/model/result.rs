@@ -44,8 +44,10 @@ pub struct CourseCondition {
     pub short_term: Option<RateCalc>,
     /// Regression and its upper bound.
     pub regression: Option<RegressionCalc>,
-    /// The governing rate (None when no rate is known).
+    /// The governing rate (None when the chosen basis cannot be computed).
     pub rate: Option<GoverningRate>,
+    /// Why `rate` is missing.
+    pub rate_missing: Option<crate::calc::rates::RateUnavailable>,
     /// Remaining life.
     pub remaining_life: RemainingLife,
     /// Date the course reaches t_min at the governing rate.
@@ -117,8 +119,8 @@ pub struct TankInterval {
 /// Tank-level verdict.
 #[derive(Debug, Clone, PartialEq)]
 pub struct TankSummary {
-    /// Course with the least remaining life (the lower on a tie); None when no course
-    /// has a known rate and none is below t_min.
+    /// Course with the least finite remaining life (the lower on a tie); None when no
+    /// course has one (no rate known, or no measurable corrosion anywhere).
     pub governing_course: Option<u32>,
     /// Remaining life of the governing course.
     pub remaining_life: Option<RemainingLife>,

@@ -7,7 +7,7 @@ use std::fmt;
 
 use chrono::NaiveDate;
 
-use crate::calc::rates::RateFallback;
+use crate::calc::rates::RateUnavailable;
 use crate::calc::survey::SuspectKind;
 use crate::calc::units::{Rate, Thickness, UnitSystem};
 use crate::model::tank::RateBasis;
@@ -74,16 +74,20 @@ pub enum Warning {
         /// The negative rate.
         rate: Shown,
     },
-    /// The requested rate basis could not be used.
-    RateBasisFallback {
+    /// The chosen rate basis cannot be computed for a course.
+    RateBasisUnavailable {
         /// Course.
         course: u32,
-        /// Asked for.
-        requested: RateBasis,
-        /// Used instead.
-        used: RateBasis,
+        /// The basis chosen in tank.toml.
+        basis: RateBasis,
         /// Why.
-        reason: RateFallback,
+        reason: RateUnavailable,
+    },
+    /// A welded course without a material: the code's defaults for a material not
+    /// known are used.
+    MaterialNotGiven {
+        /// Course.
+        course: u32,
     },
     /// One survey only: the long-term rate assumes the nominal thickness when new.
     AssumedNominal {
@@ -206,25 +210,31 @@ impl fmt::Display for Warning {
                 "course {course}: apparent thickening ({rate}) treated as 0; \
                  check the gauge calibration and the readings of both surveys"
             ),
-            Warning::RateBasisFallback {
+            Warning::RateBasisUnavailable {
                 course,
-                requested,
-                used,
+                basis,
                 reason,
             } => {
                 let why = match reason {
-                    RateFallback::TooFewSurveysForRegression => {
+                    RateUnavailable::TooFewSurveysForRegression => {
                         "a regression needs 3 or more surveys"
                     }
-                    RateFallback::TooFewSurveys => "it needs 2 or more surveys",
+                    RateUnavailable::TooFewSurveys => "it needs 2 or more surveys",
                 };
                 write!(
                     f,
-                    "course {course}: rate basis \"{}\" not available ({why}); \"{}\" used",
-                    requested.name(),
-                    used.name()
+                    "course {course}: rate basis \"{}\" cannot be computed ({why}): no \
+                     governing rate, remaining life not computed; add surveys or choose \
+                     rate_basis = \"conservative\"",
+                    basis.name()
                 )
             }
+            Warning::MaterialNotGiven { course } => write!(
+                f,
+                "course {course}: no material in tank.toml: the code's properties for a material \
+                 not known are used (Y = 30,000 psi / 205 MPa, T = 55,000 psi / 380 MPa); give \
+                 `material` if it is known"
+            ),
             Warning::AssumedNominal {
                 course,
                 nominal,

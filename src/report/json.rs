@@ -156,7 +156,7 @@ pub fn course(a: &Assessment, c: &CourseResult, v: &View) -> JsonCourse {
         survey_date: k.map(|k| k.latest.date.to_string()),
         readings: k.map_or(0, |k| k.latest.count),
         t_minimum: k.map(|k| sig6(v.thk(k.latest.minimum))),
-        rate_basis: k.and_then(|k| k.rate.map(|r| r.used.name())),
+        rate_basis: k.and_then(|k| k.rate.map(|r| r.basis.name())),
         retirement_date: k.and_then(|k| k.retirement_date.map(|d| d.to_string())),
         max_fill_height_next: k.and_then(|k| k.max_fill_height_next.map(|h| sig6(v.len(h.value)))),
         ut_interval_years: k.map(|k| sig6(k.ut_interval.years)),

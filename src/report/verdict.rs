@@ -47,7 +47,7 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
             let k = c.and_then(|c| c.condition.as_ref());
             let rate = k
                 .and_then(|k| k.rate)
-                .map(|r| format!("{} ({} rate)", v.rate_text(r.value), r.used.name()))
+                .map(|r| format!("{} ({} rate)", v.rate_text(r.value), r.basis.name()))
                 .unwrap_or_default();
             match life {
                 RemainingLife::Years(y) if y <= 0.0 => {
@@ -72,11 +72,21 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
                 RemainingLife::Unknown => {}
             }
         }
-        _ => out.push(
-            "No corrosion rate is known (a single survey and no in-service date): remaining \
-             life cannot be projected."
-                .to_string(),
-        ),
+        _ => {
+            let any_rate = a
+                .courses
+                .iter()
+                .any(|c| c.condition.as_ref().is_some_and(|k| k.rate.is_some()));
+            out.push(if any_rate {
+                "No measurable corrosion on any course with a known rate (governing rates 0): \
+                 remaining life is not limited by corrosion."
+                    .to_string()
+            } else {
+                "No governing corrosion rate is known (see the warnings): remaining life \
+                 cannot be projected."
+                    .to_string()
+            });
+        }
     }
 
     // Fill height.
