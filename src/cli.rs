@@ -171,13 +171,13 @@ pub struct RequiredArgs {
     #[arg(long, value_name = "H1,H2,...", value_delimiter = ',', value_parser = parse_positive)]
     pub course_heights: Vec<f64>,
     /// Plate grade of every course (a grade of the built-in table).
-    #[arg(long, value_name = "GRADE", conflicts_with_all = ["design_stress", "test_stress"], value_parser = parse_grade)]
+    #[arg(long, value_name = "GRADE", value_parser = parse_grade)]
     pub material: Option<&'static crate::calc::materials::Grade>,
-    /// Design stress S_d of every course instead of a material (MPa or psi).
-    #[arg(long, value_name = "S", value_parser = parse_positive, requires = "test_stress")]
+    /// Design stress S_d of every course, instead of the material's (MPa or psi).
+    #[arg(long, value_name = "S", value_parser = parse_positive)]
     pub design_stress: Option<f64>,
-    /// Hydrostatic test stress S_t of every course (MPa or psi).
-    #[arg(long, value_name = "S", value_parser = parse_positive, requires = "design_stress")]
+    /// Hydrostatic test stress S_t of every course, instead of the material's.
+    #[arg(long, value_name = "S", value_parser = parse_positive)]
     pub test_stress: Option<f64>,
     /// Design corrosion allowance of every course (mm or in).
     #[arg(long, value_name = "CA", value_parser = parse_non_negative, default_value_t = 0.0)]

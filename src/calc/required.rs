@@ -56,13 +56,9 @@ pub fn required_shell(tank: &Tank, nominal_known: bool) -> RequiredShell {
         .collect();
     let min_nominal = minimum_nominal(units, d);
 
-    // Applicability of the variable design point.
-    let bottom_t = match (tank.courses.first(), one_foot.first()) {
-        (Some(c), _) if nominal_known => Thickness(c.nominal_thickness.0 - c.corrosion_allowance.0),
-        (_, Some(of)) => Thickness(of.design_corroded.0.max(of.test.0)),
-        _ => Thickness(0.0),
-    };
-    let appl = applicability(units, d, tank.max_fill_height, bottom_t);
+    // The variable design point: size both conditions, then check L / H with the
+    // bottom-course thickness the method itself requires (the larger of design less CA
+    // and test), the same whether the shell comes from a folder or the command line.
     let shell = |condition: Condition| VdpShell {
         units,
         diameter: d,
@@ -83,16 +79,29 @@ pub fn required_shell(tank: &Tank, nominal_known: bool) -> RequiredShell {
             .collect(),
         condition,
     };
-    let (vdp_design, vdp_test) = if appl.holds {
+    let design = size_shell(&shell(Condition::Design));
+    let test = size_shell(&shell(Condition::Test));
+    let bottom_t = match (design.first(), test.first()) {
+        (Some(a), Some(b)) => Thickness(a.value().0.max(b.value().0)),
+        _ => Thickness(0.0),
+    };
+    let appl = applicability(units, d, tank.max_fill_height, bottom_t);
+    for (c, (a, b)) in tank.courses.iter().zip(design.iter().zip(&test)) {
+        let weak = [a, b]
+            .iter()
+            .any(|k| k.design_point().is_some_and(|x| x < 0.0));
+        if appl.holds && weak {
+            warnings.push(Warning::VariablePointBelowJoint { course: c.number });
+        }
+        let stalled = [a, b].iter().any(|k| !k.converged());
+        if appl.holds && stalled {
+            warnings.push(Warning::VariablePointNotSettled { course: c.number });
+        }
+    }
+    let (vdp_design, vdp_test): (Vec<_>, Vec<_>) = if appl.holds {
         (
-            size_shell(&shell(Condition::Design))
-                .into_iter()
-                .map(Some)
-                .collect(),
-            size_shell(&shell(Condition::Test))
-                .into_iter()
-                .map(Some)
-                .collect(),
+            design.into_iter().map(Some).collect(),
+            test.into_iter().map(Some).collect(),
         )
     } else {
         (
@@ -108,7 +117,7 @@ pub fn required_shell(tank: &Tank, nominal_known: bool) -> RequiredShell {
             UnitSystem::Usc => "200 ft",
         };
         warnings.push(Warning::OneFootBeyondLimit {
-            diameter: format!("{} {}", d.0, units.length_unit()),
+            diameter: format!("{:.2} {}", d.0, units.length_unit()),
             limit: limit.to_string(),
         });
     }
@@ -116,6 +125,7 @@ pub fn required_shell(tank: &Tank, nominal_known: bool) -> RequiredShell {
         warnings.push(Warning::VariablePointNotApplicable {
             ratio: appl.ratio,
             limit: appl.limit,
+            one_foot_applies: one_foot_ok,
         });
     }
 
@@ -159,8 +169,8 @@ pub fn required_shell(tank: &Tank, nominal_known: bool) -> RequiredShell {
             if nominal.0 < governing.1.0 {
                 warnings.push(Warning::NominalBelowRequired {
                     course: c.number,
-                    nominal: Shown::thickness(nominal, units),
-                    required: Shown::thickness(governing.1, units),
+                    nominal: Shown::thickness(nominal, units).finer(),
+                    required: Shown::thickness(governing.1, units).finer(),
                     method: governing.0,
                 });
             }

@@ -243,6 +243,14 @@ impl CourseCalc {
             CourseCalc::Upper(u) => u.value,
         }
     }
+    /// Whether the iteration settled (always true for the bottom course).
+    pub fn converged(&self) -> bool {
+        match self {
+            CourseCalc::Bottom(_) => true,
+            CourseCalc::Second(s) => s.t2a.converged,
+            CourseCalc::Upper(u) => u.converged,
+        }
+    }
     /// The design point x of the final step (upper courses and t2a), thickness units.
     pub fn design_point(&self) -> Option<f64> {
         match self {

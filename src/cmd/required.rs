@@ -44,11 +44,11 @@ fn ad_hoc(args: &RequiredArgs) -> Result<Tank, Error> {
         ));
     }
     let material = match (args.material, args.design_stress, args.test_stress) {
-        (Some(g), _, _) => Material::Grade(g),
+        (Some(grade), _, _) => Material::Grade(grade),
         (None, Some(_), Some(_)) => Material::NotGiven,
         _ => {
             return Err(Error::Usage(
-                "give --material, or --design-stress and --test-stress".into(),
+                "give --material, or both --design-stress and --test-stress".into(),
             ));
         }
     };

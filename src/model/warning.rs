@@ -32,6 +32,11 @@ impl Shown {
             decimals: thickness_decimals(units),
         }
     }
+    /// One more decimal, for comparing two close values.
+    pub fn finer(mut self) -> Self {
+        self.decimals += 1;
+        self
+    }
     /// A rate in the unit of `units`.
     pub fn rate(r: Rate, units: UnitSystem) -> Self {
         Shown {
@@ -173,6 +178,19 @@ pub enum Warning {
         ratio: f64,
         /// The limit.
         limit: f64,
+        /// Whether the one-foot method is within its diameter limit.
+        one_foot_applies: bool,
+    },
+    /// The design point fell below the course's bottom joint (K < 1: the course is
+    /// weaker than the one below it).
+    VariablePointBelowJoint {
+        /// Course.
+        course: u32,
+    },
+    /// The design-point iteration did not settle within its step limit.
+    VariablePointNotSettled {
+        /// Course.
+        course: u32,
     },
     /// A course's nominal thickness is below what a method requires.
     NominalBelowRequired {
@@ -316,14 +334,36 @@ impl fmt::Display for Warning {
             Warning::OneFootBeyondLimit { diameter, limit } => write!(
                 f,
                 "D {diameter} is over the one-foot method's limit of {limit} (API 650 5.6.3.1): \
-                 its thicknesses are shown for comparison only; the variable-design-point \
-                 method applies"
+                 its thicknesses are shown for comparison only"
             ),
-            Warning::VariablePointNotApplicable { ratio, limit } => write!(
+            Warning::VariablePointNotApplicable {
+                ratio,
+                limit,
+                one_foot_applies,
+            } => {
+                let instead = if *one_foot_applies {
+                    "the one-foot method applies"
+                } else {
+                    "neither method applies: an elastic analysis is needed (API 650 5.6.5)"
+                };
+                write!(
+                    f,
+                    "variable-design-point method not applied: L/H = {ratio:.3} is over its \
+                     limit {limit:.3} (API 650 5.6.4.1); {instead}"
+                )
+            }
+            Warning::VariablePointBelowJoint { course } => write!(
                 f,
-                "variable-design-point method not applied: L/H = {ratio:.1} is over its limit \
-                 {limit:.1} (API 650 5.6.4.1); use the one-foot method (D within its limit) or \
-                 an elastic analysis"
+                "course {course}: the variable design point falls below the course's bottom \
+                 joint (K = t_L / t_u < 1: this course needs more than the one below it); the \
+                 method's formulas are applied as printed, but a lower course should be no \
+                 thinner than the course above it (API 650 5.6.1.3, from memory): check the \
+                 plate grades or use an elastic analysis"
+            ),
+            Warning::VariablePointNotSettled { course } => write!(
+                f,
+                "course {course}: the variable-design-point iteration did not settle within \
+                 its step limit; its last value is shown"
             ),
             Warning::NominalBelowRequired {
                 course,

@@ -80,9 +80,12 @@ fn si_and_usc_forms_agree() {
 }
 
 /// A shallow liquid on a wide tank: L / H over 1000/6, the method is not applied
-/// (API 650 5.6.4.1). D = 80 m, H = 2.5 m: one-foot design t = 4.9 x 80 x 2.2 x 0.9 /
-/// 160 = 4.851 mm, test t = 4.9 x 80 x 2.2 / 171.4286 = 5.0307 mm (the larger is the
-/// bottom-course t of L): L = sqrt(500 x 80 x 5.0307) = 448.58 mm; L/H = 179.43 > 166.67.
+/// (API 650 5.6.4.1). D = 80 m, H = 2.5 m; the t of L is the method's own bottom
+/// course (the larger of design less CA and test):
+/// test factor 1.06 - 0.0696 x 80 / 2.5 x sqrt(2.5 / 171.4286) = 1.06 - 2.2272 x
+/// 0.120761 = 0.791041; x 4.9 x 2.5 x 80 / 171.4286 = 5.71667 -> t1t = 4.52211 mm
+/// (design: 0.795882 x 5.5125 = 4.38730 mm). L = sqrt(500 x 80 x 4.52211) = 425.30 mm;
+/// L/H = 170.12 > 166.67.
 #[test]
 fn variable_point_not_applied_when_l_over_h_is_too_large() {
     let run = strake(
@@ -92,7 +95,11 @@ fn variable_point_not_applied_when_l_over_h_is_too_large() {
     assert_eq!(run.code, 0, "{}", run.stderr);
     let v = json(&run);
     assert_eq!(v["variable_design_point"]["applies"], false);
-    assert!(close(num(&v, "/variable_design_point/ratio"), 179.4, 0.001));
+    assert!(close(
+        num(&v, "/variable_design_point/ratio"),
+        170.12,
+        0.0005
+    ));
     assert!(v["courses"][0]["vdp_design"].is_null());
     assert!(v["courses"][0]["required_vdp"].is_null());
     assert!(
@@ -119,7 +126,7 @@ fn usage_errors() {
     assert_eq!(run.code, 2);
     assert_eq!(
         run.stderr.trim_end(),
-        "error: give --material, or --design-stress and --test-stress"
+        "error: give --material, or both --design-stress and --test-stress"
     );
     let run = strake(
         "required --diameter 30 --fill-height 13 --sg 1 --course-heights 6,6 --material A36"
@@ -135,4 +142,34 @@ fn usage_errors() {
             .split_whitespace(),
     );
     assert_eq!(run.code, 2);
+}
+
+/// An upper course of a weaker grade than the course below (A36 over A537-2): K < 1
+/// gives a negative design point. The printed formulas are applied as they are, and
+/// the output warns (API 650 5.6.1.3, from memory: a lower course no thinner than the
+/// course above it).
+#[test]
+fn weaker_upper_course_is_flagged() {
+    let mut toml = String::from(
+        "id = \"VT6\"\nunits = \"SI\"\ndiameter = 100\nmax_fill_height = 19.2\nspecific_gravity = 0.9\n",
+    );
+    for i in 0..8 {
+        let grade = if i < 3 { "A537-2" } else { "A36" };
+        toml.push_str(&format!(
+            "[[course]]\nheight = 2.4\nnominal_thickness = 30\nmaterial = \"{grade}\"\n"
+        ));
+    }
+    let fx = crate::support::TankFixture::new(&toml);
+    let v = json(&strake([
+        "required",
+        fx.path().to_str().expect("utf-8 path"),
+        "--format",
+        "json",
+    ]));
+    assert!(num(&v, "/courses/3/vdp_design_point_design") < 0.0);
+    let w = v["warnings"].to_string();
+    assert!(
+        w.contains("course 4: the variable design point falls below the course's bottom joint"),
+        "{w}"
+    );
 }
