@@ -4,9 +4,8 @@
 //! Per course: required = max(design, hydrotest, minimum nominal) by each method
 //! (methods.md s.2 and s.7). The variable-design-point method is applied only where
 //! L / H is within its limit; the one-foot method is always computed and flagged above
-//! D = 61 m (200 ft). The L of the applicability check uses the bottom course's
-//! nominal thickness less CA when it is known (a tank folder), else the one-foot
-//! required thickness less CA.
+//! D = 61 m (200 ft). The L of the applicability check uses the bottom-course
+//! thickness the method itself requires (the larger of design less CA and test).
 
 use super::design::{design_stresses, minimum_nominal, one_foot_applies, one_foot_design};
 use super::units::{Thickness, UnitSystem};
