@@ -158,6 +158,7 @@ fn tank(case: &Case, units: UnitSystem) -> (Tank, ReadingSet) {
         ReadingSet {
             files: vec!["p.csv".into()],
             readings,
+            scans: Vec::new(),
         },
     )
 }
