@@ -54,15 +54,21 @@ struct KeyLine<'a> {
     column: u64,
 }
 
-/// True when the first non-blank line of `bytes` is a `# key = value` line: how a lone
-/// file given to `strake check` is told from a survey file (besides being in scans/).
+/// True when the leading `#` lines of `bytes` hold a `# key = value` line with a scan
+/// key: how a lone file given to `strake check` is told from a survey file (besides
+/// being in a scans/ folder).
 pub fn looks_like_scan(bytes: &[u8]) -> bool {
     let bytes = bytes.strip_prefix(BOM).unwrap_or(bytes);
     bytes
         .split(|&b| b == b'\n')
-        .map(|l| l.trim_ascii())
-        .find(|l| !l.is_empty())
-        .is_some_and(|l| l.starts_with(b"#") && l.contains(&b'='))
+        .map(<[u8]>::trim_ascii)
+        .filter(|l| !l.is_empty())
+        .take_while(|l| l.starts_with(b"#"))
+        .any(|l| {
+            let text = String::from_utf8_lossy(&l[1..]);
+            text.split_once('=')
+                .is_some_and(|(k, _)| SCAN_KEYS.contains(&k.trim().to_ascii_lowercase().as_str()))
+        })
 }
 
 /// The delimiter of a grid line: `;` when it holds one, else tab, else `,`.
@@ -585,6 +591,8 @@ mod tests {
     #[test]
     fn tells_a_scan_from_a_survey() {
         assert!(looks_like_scan(b"\n# course = 1\n9.1,9.2\n"));
+        assert!(looks_like_scan(b"# made up\n# Row_Pitch = 50\n9.1,9.2\n"));
+        assert!(!looks_like_scan(b"# a = b\ndate,course,thickness\n"));
         assert!(!looks_like_scan(b"# exported\ndate,course,thickness\n"));
         assert!(!looks_like_scan(b"date,course,thickness\n"));
     }
