@@ -216,8 +216,9 @@ pub enum InputErrorKind {
     },
     /// A grid row with a different number of cells from the first row.
     #[error(
-        "{found} cells, expected {expected} as in the first row of the grid (line {first_line}); \
-         leave a cell empty for a point not measured"
+        "{found} cell{}, expected {expected} as in the first row of the grid (line {first_line}); \
+         leave a cell empty for a point not measured",
+        if *.found == 1 { "" } else { "s" }
     )]
     GridWidth {
         /// Cells in this row.

@@ -209,10 +209,10 @@ pub fn read_scan(
 
     let course_line = need("course")?;
     let n_courses = tank.map_or(0, |t| t.courses.len() as u32);
-    let course_expected = if n_courses > 0 {
-        format!("a course of this tank, 1 to {n_courses} (1 = bottom course)")
+    let range = if n_courses > 0 {
+        format!("1 to {n_courses}")
     } else {
-        "a whole number, 1 = bottom course".to_string()
+        "1 or more".to_string()
     };
     let course: u32 = match course_line.value.parse::<u32>() {
         Ok(c) if c >= 1 && (n_courses == 0 || c <= n_courses) => c,
@@ -220,14 +220,16 @@ pub fn read_scan(
             return Err(invalid(
                 path,
                 &course_line,
-                &format!("is not a course of this tank, expected {course_expected}"),
+                &format!("is not a course of this tank, expected {range} (1 = bottom course)"),
             ));
         }
         Err(_) => {
             return Err(invalid(
                 path,
                 &course_line,
-                &format!("is not a course number, expected {course_expected}"),
+                &format!(
+                    "is not a course number, expected a whole number, {range} (1 = bottom course)"
+                ),
             ));
         }
     };

@@ -79,7 +79,13 @@ fn scan_line(s: &Scan, units: Option<UnitSystem>) -> String {
     let (lu, tu) = units.map_or(("", ""), |u| (u.length_unit(), u.thickness_unit()));
     let sp = |unit: &str| if unit.is_empty() { "" } else { " " };
     let pits = match s.pit_threshold {
-        Some(p) => format!(", {} pits (below {}{}{tu})", s.pits(), p.0, sp(tu)),
+        Some(p) => format!(
+            ", {} pit{} (below {}{}{tu})",
+            s.pits(),
+            if s.pits() == 1 { "" } else { "s" },
+            p.0,
+            sp(tu)
+        ),
         None => String::new(),
     };
     format!(

@@ -349,7 +349,12 @@ fn area_lines(area: &AreaAssessment, v: &View) -> String {
     let _ = writeln!(o, "{}: course {}, {}", s.file, s.course, s.date);
     let pits = match s.pit_threshold {
         None => "no pit_threshold (no reading is taken as a pit)".to_string(),
-        Some(p) => format!("{} pits (below {})", s.pits(), v.thk_text(p)),
+        Some(p) => format!(
+            "{} pit{} (below {})",
+            s.pits(),
+            if s.pits() == 1 { "" } else { "s" },
+            v.thk_text(p)
+        ),
     };
     o.push_str(&wrap(
         &format!(
@@ -523,10 +528,15 @@ fn area_lines(area: &AreaAssessment, v: &View) -> String {
     let level = v.len_text(area.fill_height);
     let verdict = match area.acceptable {
         Some(true) => format!("acceptable at {level}"),
-        Some(false) => format!(
-            "not acceptable at {level} ({} rule fails)",
-            area.failed_rules().join(", ")
-        ),
+        Some(false) => {
+            let failed = area.failed_rules();
+            let names = match failed.as_slice() {
+                [one] => format!("the {one} rule fails"),
+                [init @ .., last] => format!("the {} and {last} rules fail", init.join(", ")),
+                [] => String::new(),
+            };
+            format!("not acceptable at {level} ({names})")
+        }
         None => format!("not decided at {level} (t1 not computed)"),
     };
     let limit = |l: &crate::calc::area::AreaLimit| {
@@ -539,10 +549,16 @@ fn area_lines(area: &AreaAssessment, v: &View) -> String {
     let next = area
         .max_fill_height_next
         .as_ref()
-        .map_or("not computed without a rate".to_string(), |l| limit(l));
+        .map_or("not computed without a rate".to_string(), &limit);
+    let spacing = if area.pit_spacing.pass {
+        ""
+    } else {
+        "; the pits are too close together to be ignored: no liquid level cures that, repair \
+         them or assess the pitted zone as part of the thin area"
+    };
     o.push_str(&wrap(
         &format!(
-            "{verdict}; allowable liquid level {} now, {next} at the next inspection",
+            "{verdict}; allowable liquid level {} now, {next} at the next inspection{spacing}",
             limit(&area.max_fill_height)
         ),
         WRAP,

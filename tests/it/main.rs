@@ -8,4 +8,5 @@ mod fill_height;
 mod properties;
 mod reference;
 mod samples;
+mod scans;
 mod support;
