@@ -184,7 +184,8 @@ fn grid_by_hand() {
 fn si_and_usc_agree() {
     let mm = 25.4;
     let ft = 0.3048;
-    let psi = 6894.757_293_168_36 / 1e6; // MPa per psi
+    // MPa per psi: 1 lbf = 4.448 221 615 260 5 N over (0.0254 m)^2 (definitions).
+    let psi = 4.448_221_615_260_5 / (0.0254 * 0.0254) / 1e6;
     let usc_tank = format!(
         "id = \"FX-U\"\nunits = \"USC\"\ndiameter = {}\nmax_fill_height = {}\nspecific_gravity = 1.0\n\
          in_service_since = 2000-01-01\n[[course]]\nheight = {}\nnominal_thickness = {}\n\
@@ -318,7 +319,8 @@ macro_rules! scan_case {
     ($name:ident, $content:expr, $pos:expr, $msg:expr) => {
         #[test]
         fn $name() {
-            let (code, err, file) = scan_err(&$content);
+            let content: String = $content.into();
+            let (code, err, file) = scan_err(&content);
             assert_eq!(code, 1);
             assert_eq!(err, format!("error: {file}{}: {}", $pos, $msg));
         }
