@@ -502,7 +502,7 @@ fn area_lines(area: &AreaAssessment, v: &View) -> String {
         "pit spacing",
         short(v, length),
         format!(
-            "<= {} {tu} in any {} {tu}",
+            "<= {} {tu} within any {} {tu}",
             short(v, sp.limit),
             short(v, sp.span)
         ),
@@ -594,8 +594,16 @@ fn extreme_value_lines(a: &Assessment, v: &View) -> Option<String> {
                 WRAP,
                 "",
             ));
-            return Some(o);
+        } else {
+            for (c, why) in a.courses.iter().zip(&reasons) {
+                o.push_str(&wrap(
+                    &format!("course {}: not estimated: {why}", c.number),
+                    WRAP,
+                    "",
+                ));
+            }
         }
+        return Some(o);
     }
     let tu = v.to.thickness_unit();
     let headers = [

@@ -168,7 +168,7 @@ fn grid_by_hand() {
         "Allowable liquid level now: 8.90 m, set by the scanned area on course 1 (patch.csv, pit depth rule).",
         "At the next UT survey (2039-06-01): 6.28 m, set by the scanned area on course 1 (patch.csv, pit depth rule).",
         "pit depth 2.40 >= 0.5 x 4.28 + 0.75 = 2.89 mm FAIL row 3, column 2",
-        "pit spacing 100 <= 50 mm in any 200 mm FAIL column 2, rows 2-3",
+        "pit spacing 100 <= 50 mm within any 200 mm FAIL column 2, rows 2-3",
         "t1 5.30 >= 4.28 + 0.75 = 5.03 mm pass column 1, rows 1-4, H 7.50 m",
     ] {
         assert!(flat.contains(want), "missing {want:?} in\n{}", run.stdout);
@@ -447,3 +447,36 @@ scan_case!(
     "",
     "no readings: every cell of the grid is empty"
 );
+
+/// Extreme values (methods.md s.8): where no course can be estimated, the text names
+/// each course's reason; the JSON carries it beside a null estimate. Course 1 has
+/// three drops (fewer than the four a fit needs), course 2 readings without azimuth.
+#[test]
+fn extreme_value_reasons_per_course() {
+    let fx = TankFixture::new(
+        "id = \"EV\"\nunits = \"SI\"\ndiameter = 20.0\nmax_fill_height = 4.0\n\
+         specific_gravity = 1.0\n[[course]]\nheight = 2.5\nnominal_thickness = 8.0\n\
+         material = \"A36\"\n[[course]]\nheight = 2.5\nnominal_thickness = 6.0\n\
+         material = \"A36\"\n",
+    )
+    .survey(
+        "s.csv",
+        "date,course,azimuth,thickness\n2024-06-01,1,0,7.5\n2024-06-01,1,90,7.4\n\
+         2024-06-01,1,180,7.6\n2024-06-01,2,,5.8\n",
+    );
+    let run = strake(["assess", fx.path().to_str().expect("utf-8")]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let flat = run.stdout.split_whitespace().collect::<Vec<_>>().join(" ");
+    for want in [
+        "course 1: not estimated: 3 drops on the course at its latest survey; a fit needs at least 4",
+        "course 2: not estimated: no reading of the course's latest survey has an azimuth, so the readings cannot be grouped into drops",
+    ] {
+        assert!(flat.contains(want), "missing {want:?} in\n{}", run.stdout);
+    }
+    let v = assess_json(&fx);
+    assert!(v["courses"][0]["extreme_value"].is_null());
+    assert_eq!(
+        v["courses"][0]["extreme_value_reason"],
+        "3 drops on the course at its latest survey; a fit needs at least 4"
+    );
+}
