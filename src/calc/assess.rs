@@ -9,12 +9,20 @@
 //!    (API 653 6.3), due dates from the latest survey, the governing course (least
 //!    remaining life, the lower course on a tie), the allowable liquid level now and
 //!    after the UT interval at each course's governing rate;
-//! 4. points: per-location rates and the hot spots (points.rs).
+//! 4. points: per-location rates and the hot spots (points.rs);
+//! 5. scanned areas (area.rs): the local-area rules with corrosion at the course's
+//!    governing rate over the tank's UT interval, and the level each area allows, which
+//!    joins the courses' in the tank's allowable level; per course, the extreme-value
+//!    estimate of its thinnest spot from its drops (extreme.rs) and the uniformity
+//!    check of its readings (COV, methods.md s.5).
 
 use std::collections::BTreeMap;
 
 use chrono::NaiveDate;
 
+use super::area::{AreaAssessment, FutureLoss, assess_area};
+use super::constants::COV_UNIFORM_LIMIT;
+use super::extreme::{DropReading, extreme_value};
 use super::life::{
     IntervalBasis, IntervalKind, RemainingLife, add_years, interval, remaining_life, status,
 };
@@ -102,6 +110,7 @@ pub fn assess(
         });
     }
     let mut by_course_date: BTreeMap<(u32, NaiveDate), Vec<f64>> = BTreeMap::new();
+    let mut drops: BTreeMap<(u32, NaiveDate), Vec<DropReading>> = BTreeMap::new();
     let mut by_point: BTreeMap<(u32, &str), PointHistory> = BTreeMap::new();
     let mut per_date: BTreeMap<NaiveDate, usize> = BTreeMap::new();
     for r in &used {
@@ -109,6 +118,13 @@ pub fn assess(
             .entry((r.course, r.date))
             .or_default()
             .push(r.thickness.0);
+        drops
+            .entry((r.course, r.date))
+            .or_default()
+            .push(DropReading {
+                azimuth: r.azimuth,
+                thickness: r.thickness,
+            });
         *per_date.entry(r.date).or_default() += 1;
         if let Some(id) = r.point.as_deref() {
             let h = by_point
@@ -143,8 +159,24 @@ pub fn assess(
         .map(|(&date, &n)| SurveyInfo { date, readings: n })
         .collect();
 
+    // Scans up to the as-of date (all of them without --as-of).
+    let scans: Vec<_> = readings
+        .scans
+        .iter()
+        .filter(|s| options.as_of.is_none_or(|d| s.date <= d))
+        .collect();
+    let late_scans = readings.scans.len() - scans.len();
+    if late_scans > 0 {
+        warnings.push(Warning::ScansAfterAsOf {
+            count: late_scans,
+            as_of,
+        });
+    }
+    let scanned = |course: u32| scans.iter().any(|s| s.course == course);
+
     // 2. Per course, everything that does not depend on the tank's interval.
     let mut courses: Vec<CourseResult> = Vec::with_capacity(tank.courses.len());
+    let mut loads: Vec<CourseLoad> = Vec::with_capacity(tank.courses.len());
     for course in &tank.courses {
         let stress = in_service_stress(units, tank.construction, course.number, &course.material);
         let e = tank.joint_efficiency_of(course);
@@ -206,6 +238,39 @@ pub fn assess(
             &t_min,
             &mut warnings,
         );
+        let latest_drops = condition
+            .as_ref()
+            .and_then(|k| drops.get(&(course.number, k.latest.date)))
+            .map_or(&[][..], Vec::as_slice);
+        let extreme = extreme_value(
+            units,
+            tank.diameter,
+            course.height,
+            course.nominal_thickness,
+            latest_drops,
+        );
+        if let Some(k) = condition.as_ref() {
+            if let Some(cov) = k.latest.cov
+                && cov > COV_UNIFORM_LIMIT
+            {
+                warnings.push(Warning::NonUniform {
+                    course: course.number,
+                    cov,
+                    scanned: scanned(course.number),
+                });
+            }
+            if let Ok(ev) = &extreme
+                && ev.estimated_least.0 < t_min.value.0
+            {
+                warnings.push(Warning::ExtremeBelowMinimum {
+                    course: course.number,
+                    estimate: Shown::thickness(ev.estimated_least, units),
+                    t_min: Shown::thickness(t_min.value, units),
+                    scanned: scanned(course.number),
+                });
+            }
+        }
+        loads.push(load);
         courses.push(CourseResult {
             number: course.number,
             bottom_elevation: course.bottom_elevation,
@@ -215,6 +280,7 @@ pub fn assess(
             joint_efficiency: e,
             t_min,
             condition,
+            extreme_value: extreme,
         });
     }
 
@@ -267,8 +333,61 @@ pub fn assess(
         }
         best
     };
-    let max_fill_now = least(&|k| Some(k.max_fill_height.value));
-    let max_fill_next = least(&|k| k.max_fill_height_next.map(|h| h.value));
+    let mut max_fill_now = least(&|k| Some(k.max_fill_height.value));
+    let mut max_fill_next = least(&|k| k.max_fill_height_next.map(|h| h.value));
+
+    // 5. Scanned areas: rules with corrosion to the next inspection; their levels join
+    // the courses' (a tie stays with the course).
+    let mut areas: Vec<AreaAssessment> = Vec::new();
+    for scan in &scans {
+        let Some(i) = tank.courses.iter().position(|c| c.number == scan.course) else {
+            continue;
+        };
+        let rate = courses[i].condition.as_ref().and_then(|k| k.rate_value());
+        let future = FutureLoss::new(rate, ut_interval.years);
+        let Some(area) = assess_area(scan, loads[i], tank.max_fill_height, future) else {
+            continue;
+        };
+        if rate.is_none() {
+            warnings.push(Warning::AreaNoRate {
+                file: scan.file.clone(),
+                course: scan.course,
+            });
+        }
+        if area.t1.is_none() {
+            warnings.push(Warning::AreaNoWindow {
+                file: scan.file.clone(),
+                rows_per_window: area.windows.rows_per_window,
+            });
+        }
+        areas.push(area);
+    }
+    let mut max_fill_area = None;
+    let mut max_fill_next_area = None;
+    for (i, a) in areas.iter().enumerate() {
+        let level = a.max_fill_height.calc.value;
+        if max_fill_now.is_none_or(|b| level.0 < b.level.0) {
+            max_fill_now = Some(FillLimit {
+                level,
+                course: a.scan.course,
+            });
+            max_fill_area = Some(i);
+        }
+        match (a.max_fill_height_next, max_fill_next) {
+            (None, _) => {
+                max_fill_next = None;
+                max_fill_next_area = None;
+            }
+            (Some(n), Some(b)) if n.calc.value.0 < b.level.0 => {
+                max_fill_next = Some(FillLimit {
+                    level: n.calc.value,
+                    course: a.scan.course,
+                });
+                max_fill_next_area = Some(i);
+            }
+            _ => {}
+        }
+    }
     let no_rate: Vec<u32> = measured
         .iter()
         .filter(|(_, k)| k.rate.is_none())
@@ -291,6 +410,8 @@ pub fn assess(
             .filter(|(_, k)| k.status == Status::BelowMinimum)
             .map(|(n, _)| *n)
             .collect(),
+        max_fill_height_area: max_fill_area,
+        max_fill_height_next_area: max_fill_next_area,
     };
 
     // 4. Points.
@@ -319,6 +440,7 @@ pub fn assess(
         warnings,
         hydrotest,
         variable_point,
+        areas,
     })
 }
 

@@ -237,3 +237,107 @@ pub const VDP_MAX_ITERATIONS: usize = 100;
 /// The iteration stops when t_x changes by less than this, in thickness units
 /// relative to t_x.
 pub const VDP_TOLERANCE: f64 = 1e-9;
+// Locally thinned areas from grid scans (methods.md s.3, s.4, s.5; API 653 4.3.2,
+// from memory of the clauses)
+// ---------------------------------------------------------------------------------
+
+/// Coefficient of the averaging length in its USC printed form, L = 3.7 sqrt(D t2)
+/// with D in ft, t2 in in and L in in (API 653 4.3.2.1, from memory).
+pub const AVERAGING_COEFFICIENT_USC: f64 = 3.7;
+/// Coefficient of the averaging length with D and t2 in one unit, L = 1.068 sqrt(D t2)
+/// (methods.md s.5: 3.7 / sqrt(12 in/ft) = 1.0681, printed rounded to 1.068); used for
+/// SI with D in mm.
+pub const AVERAGING_COEFFICIENT_CONSISTENT: f64 = 1.068;
+/// Longest averaging length, in (API 653 4.3.2.1: "L <= 40 in", from memory).
+pub const AVERAGING_LENGTH_CAP_IN: f64 = 40.0;
+/// Longest averaging length, mm (methods.md s.5: 1000 mm in SI; 40 in is 1016 mm, the
+/// SI edition rounds it down).
+pub const AVERAGING_LENGTH_CAP_MM: f64 = 1000.0;
+/// t2 must be at least this fraction of t_min (API 653 4.3.2.1, "60 % of t_min", from
+/// memory; methods.md s.5).
+pub const T2_FRACTION_OF_T_MIN: f64 = 0.6;
+/// A pit may leave no less than this fraction of t_min (API 653 4.3.2.2 a, "one-half
+/// t_min exclusive of the corrosion allowance", from memory; methods.md s.5).
+pub const PIT_FRACTION_OF_T_MIN: f64 = 0.5;
+/// Most pit length along a vertical line in one span, in (API 653 4.3.2.2 b, "2 in in
+/// an 8 in length", from memory).
+pub const PIT_LENGTH_LIMIT_IN: f64 = 2.0;
+/// The span of that rule, in (API 653 4.3.2.2 b, from memory).
+pub const PIT_SPAN_IN: f64 = 8.0;
+/// Most pit length along a vertical line in one span, mm (methods.md s.5: 50 mm in
+/// 200 mm, the SI form of 2 in in 8 in).
+pub const PIT_LENGTH_LIMIT_MM: f64 = 50.0;
+/// The span of that rule, mm (methods.md s.5).
+pub const PIT_SPAN_MM: f64 = 200.0;
+/// An averaging window is used only when at least this fraction of its cells holds a
+/// valid reading (not empty, not a pit); this project's rule, so that a mean is never
+/// taken over a few scattered cells.
+pub const WINDOW_MIN_VALID_FRACTION: f64 = 0.5;
+/// Relative tolerance of every "at least" / "at most" comparison of the local-area
+/// rules, so that a value equal to its limit on paper passes despite binary rounding
+/// (this project's rule).
+pub const RULE_RELATIVE_TOLERANCE: f64 = 1e-9;
+
+/// A local-area rule's two limits in one unit system.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct LocalAreaForm {
+    /// Coefficient of L (3.7 USC with D in ft; 1.068 SI with D in mm).
+    pub averaging_coefficient: f64,
+    /// Cap of L (40 in, 1000 mm).
+    pub averaging_cap: Thickness,
+    /// Most pit length in one span (2 in, 50 mm).
+    pub pit_length_limit: Thickness,
+    /// The span (8 in, 200 mm).
+    pub pit_span: Thickness,
+}
+
+impl LocalAreaForm {
+    /// The form for `units`.
+    pub fn of(units: UnitSystem) -> Self {
+        match units {
+            UnitSystem::Si => LocalAreaForm {
+                averaging_coefficient: AVERAGING_COEFFICIENT_CONSISTENT,
+                averaging_cap: Thickness(AVERAGING_LENGTH_CAP_MM),
+                pit_length_limit: Thickness(PIT_LENGTH_LIMIT_MM),
+                pit_span: Thickness(PIT_SPAN_MM),
+            },
+            UnitSystem::Usc => LocalAreaForm {
+                averaging_coefficient: AVERAGING_COEFFICIENT_USC,
+                averaging_cap: Thickness(AVERAGING_LENGTH_CAP_IN),
+                pit_length_limit: Thickness(PIT_LENGTH_LIMIT_IN),
+                pit_span: Thickness(PIT_SPAN_IN),
+            },
+        }
+    }
+}
+
+// ---------------------------------------------------------------------------------
+// Extreme values for partial coverage (methods.md s.8; ASTM G16 practice, from memory)
+// ---------------------------------------------------------------------------------
+
+/// Euler-Mascheroni constant (mathematics): the mean of the standard Gumbel
+/// distribution, used by the method of moments (u = mean - gamma a).
+pub const EULER_GAMMA: f64 = statrs::consts::EULER_MASCHERONI;
+/// Width of the strip of shell a drop's readings stand for, m: the block area is this
+/// width times the course height (this project's convention, not from a standard:
+/// +/- 0.15 m either side of the drop line, the band an inspector looks over when
+/// placing the probe).
+pub const DROP_STRIP_WIDTH_M: f64 = 0.3;
+/// The same width in ft (this project's convention).
+pub const DROP_STRIP_WIDTH_FT: f64 = 1.0;
+/// Fewest blocks for a fit: with two parameters, four maxima leave two degrees of
+/// freedom to see whether they lie on a line of the Gumbel plot (this project's floor;
+/// common practice asks for more).
+pub const EXTREME_MIN_BLOCKS: usize = 4;
+/// Most Newton steps of the maximum-likelihood fit (converges in a handful).
+pub const GUMBEL_ML_MAX_ITERATIONS: usize = 100;
+/// Relative step at which the maximum-likelihood iteration stops.
+pub const GUMBEL_ML_RELATIVE_STEP: f64 = 1e-12;
+
+/// Drop strip width in the length unit of `units`.
+pub fn drop_strip_width(units: UnitSystem) -> Length {
+    match units {
+        UnitSystem::Si => Length(DROP_STRIP_WIDTH_M),
+        UnitSystem::Usc => Length(DROP_STRIP_WIDTH_FT),
+    }
+}

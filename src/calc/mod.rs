@@ -4,12 +4,15 @@
 //! and the symbols with their units. Constants live in [`constants`], each with its
 //! origin; the built-in material table in [`materials`].
 
+pub mod area;
 pub mod assess;
 pub mod constants;
 pub mod design;
+pub mod extreme;
 pub mod fill_height;
 pub mod hydrotest;
 pub mod life;
+pub mod local;
 pub mod materials;
 pub mod points;
 pub mod rates;

@@ -16,7 +16,7 @@ pub fn run(args: &FillHeightArgs, g: Global) -> Result<Outcome, Error> {
     let out = match g.format {
         Format::Text => fill::render_text(&a, &scenarios, years, &v),
         Format::Json => fill::render_json(&a, &scenarios, years, &v),
-        Format::Csv => fill::render_csv(&scenarios, years, &v).map_err(Error::Render)?,
+        Format::Csv => fill::render_csv(&a, &scenarios, years, &v).map_err(Error::Render)?,
     };
     write::print(&out, g.color).map_err(Error::Output)?;
     Ok(Outcome::Done)

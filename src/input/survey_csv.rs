@@ -127,7 +127,8 @@ struct Columns {
     names: Vec<String>,
 }
 
-const BOM: &[u8] = b"\xEF\xBB\xBF";
+/// The UTF-8 byte-order mark some spreadsheet programs write.
+pub const BOM: &[u8] = b"\xEF\xBB\xBF";
 
 /// The delimiter of the first non-blank, non-comment line: the most frequent of
 /// `,` `;` and tab (`,` on a tie or when there is none).
@@ -313,10 +314,54 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
     })
 }
 
+/// How the text of a field reads as a number.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum NumberText {
+    /// Nothing there.
+    Empty,
+    /// A finite number.
+    Value(f64),
+    /// A number that is not finite (NaN, inf).
+    NotFinite,
+    /// Not a number.
+    NotANumber,
+    /// A decimal comma in a comma-delimited file.
+    CommaNeedsSemicolon,
+}
+
+/// What to add to "expected ..." after [`NumberText::CommaNeedsSemicolon`].
+pub const COMMA_HINT: &str = "; a decimal comma is accepted only in files delimited by ; or tab";
+
+/// Reads `s` as a number; a decimal comma is accepted when the file's `delimiter` is
+/// `;` or tab (one comma, no point).
+pub fn read_number(s: &str, delimiter: u8) -> NumberText {
+    if s.is_empty() {
+        return NumberText::Empty;
+    }
+    let parsed = if s.contains(',') {
+        if delimiter == b',' {
+            return NumberText::CommaNeedsSemicolon;
+        }
+        if s.contains('.') || s.matches(',').count() > 1 {
+            None
+        } else {
+            s.replace(',', ".").parse::<f64>().ok()
+        }
+    } else {
+        s.parse::<f64>().ok()
+    };
+    match parsed {
+        Some(v) if v.is_finite() => NumberText::Value(v),
+        Some(_) => NumberText::NotFinite,
+        None => NumberText::NotANumber,
+    }
+}
+
 /// Longest echo of a bad value in a message.
 const ECHO_CHARS: usize = 60;
 
-fn shorten(raw: &str) -> String {
+/// `raw`, cut to a length fit for a message.
+pub fn shorten(raw: &str) -> String {
     if raw.chars().count() > ECHO_CHARS {
         let s: String = raw.chars().take(ECHO_CHARS - 3).collect();
         format!("{s}...")
@@ -405,31 +450,16 @@ impl RowParser<'_> {
         expected: &str,
     ) -> Result<Option<f64>, InputError> {
         let s = self.text(record, i, line)?;
-        if s.is_empty() {
-            return Ok(None);
-        }
-        let parsed = if s.contains(',') {
-            if self.delimiter == b',' {
-                return Err(self.bad(
-                    line,
-                    i,
-                    s,
-                    "a number",
-                    format!("{expected}; a decimal comma is accepted only in files delimited by ; or tab"),
-                ));
+        match read_number(s, self.delimiter) {
+            NumberText::Empty => Ok(None),
+            NumberText::Value(v) => Ok(Some(v)),
+            NumberText::NotFinite => {
+                Err(self.bad(line, i, s, "a finite number", expected.to_string()))
             }
-            if s.contains('.') || s.matches(',').count() > 1 {
-                None
-            } else {
-                s.replace(',', ".").parse::<f64>().ok()
+            NumberText::NotANumber => Err(self.bad(line, i, s, "a number", expected.to_string())),
+            NumberText::CommaNeedsSemicolon => {
+                Err(self.bad(line, i, s, "a number", format!("{expected}{COMMA_HINT}")))
             }
-        } else {
-            s.parse::<f64>().ok()
-        };
-        match parsed {
-            Some(v) if v.is_finite() => Ok(Some(v)),
-            Some(_) => Err(self.bad(line, i, s, "a finite number", expected.to_string())),
-            None => Err(self.bad(line, i, s, "a number", expected.to_string())),
         }
     }
 
@@ -664,7 +694,8 @@ fn suffix_unit(suffix: Suffix, units: Option<UnitSystem>, thickness: bool) -> &'
     }
 }
 
-fn example_thickness(unit: &str) -> &'static str {
+/// An example reading in `unit`, for messages.
+pub fn example_thickness(unit: &str) -> &'static str {
     if unit == "in" { "0.375" } else { "12.40" }
 }
 

@@ -1,4 +1,4 @@
-//! Loads a tank folder: `tank.toml` and every `surveys/*.csv`.
+//! Loads a tank folder: `tank.toml`, every `surveys/*.csv` and every `scans/*.csv`.
 
 use std::collections::HashMap;
 use std::path::Path;
@@ -6,6 +6,7 @@ use std::path::Path;
 use chrono::NaiveDate;
 
 use super::error::{InputError, InputErrorKind, Location};
+use super::scan_csv::read_scan;
 use super::survey_csv::{SurveyContext, SurveyFileInfo, read_survey};
 use super::tank_file::parse_tank;
 use crate::model::reading::{Reading, ReadingSet};
@@ -16,6 +17,8 @@ use crate::model::warning::{Shown, Warning};
 pub const TANK_FILE: &str = "tank.toml";
 /// Folder of survey files in a tank folder.
 pub const SURVEY_DIR: &str = "surveys";
+/// Folder of grid scans of local thin areas in a tank folder.
+pub const SCAN_DIR: &str = "scans";
 
 /// Everything read from one tank folder.
 #[derive(Debug, Clone)]
@@ -24,7 +27,7 @@ pub struct TankFolder {
     pub dir: String,
     /// The tank.
     pub tank: Tank,
-    /// Readings of every survey file.
+    /// Readings of every survey file, and the grid scans.
     pub readings: ReadingSet,
     /// What each survey file held.
     pub files: Vec<SurveyFileInfo>,
@@ -71,7 +74,18 @@ pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
 /// The survey files of a tank folder, sorted by name (none when there is no
 /// surveys/ folder).
 pub fn survey_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
-    let folder = dir.join(SURVEY_DIR);
+    csv_files(dir, SURVEY_DIR)
+}
+
+/// The scan files of a tank folder, sorted by name (none when there is no scans/
+/// folder).
+pub fn scan_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
+    csv_files(dir, SCAN_DIR)
+}
+
+/// The visible `*.csv` files of `dir/sub`, sorted by name.
+fn csv_files(dir: &Path, sub: &str) -> Result<Vec<std::path::PathBuf>, InputError> {
+    let folder = dir.join(sub);
     if !folder.is_dir() {
         return Ok(Vec::new());
     }
@@ -116,7 +130,7 @@ pub fn context_of(tank: &Tank, today: NaiveDate) -> SurveyContext {
     }
 }
 
-/// Loads a whole tank folder. `today` bounds the survey dates.
+/// Loads a whole tank folder. `today` bounds the survey and scan dates.
 pub fn load_tank_dir(dir: &Path, today: NaiveDate) -> Result<TankFolder, InputError> {
     let tank = load_tank_file(dir)?;
     let ctx = context_of(&tank, today);
@@ -130,6 +144,12 @@ pub fn load_tank_dir(dir: &Path, today: NaiveDate) -> Result<TankFolder, InputEr
         files.push(info);
     }
     let warnings = remove_repeats(&tank, &mut set)?;
+    for path in scan_files(dir)? {
+        let shown = path.display().to_string();
+        let bytes = read_bytes(&path)?;
+        set.scans
+            .push(read_scan(&shown, &bytes, Some(&tank), today)?);
+    }
     Ok(TankFolder {
         dir: dir.display().to_string(),
         tank,

@@ -4,5 +4,6 @@
 pub mod reading;
 pub mod required;
 pub mod result;
+pub mod scan;
 pub mod tank;
 pub mod warning;

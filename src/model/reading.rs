@@ -3,6 +3,7 @@
 use chrono::NaiveDate;
 
 use crate::calc::units::{Length, Thickness};
+use crate::model::scan::Scan;
 
 /// Where a reading came from: an index into the list of files read, and the 1-based
 /// line of the row.
@@ -42,6 +43,8 @@ pub struct ReadingSet {
     pub files: Vec<String>,
     /// Readings in file order, then line order.
     pub readings: Vec<Reading>,
+    /// Grid scans of local thin areas (`scans/*.csv`), in file-name order.
+    pub scans: Vec<Scan>,
 }
 
 impl ReadingSet {

@@ -4,6 +4,8 @@
 
 use chrono::NaiveDate;
 
+use crate::calc::area::AreaAssessment;
+use crate::calc::extreme::{ExtremeValue, NotApplicable};
 use crate::calc::life::{IntervalBasis, IntervalCalc, RemainingLife, Status};
 use crate::calc::rates::{GoverningRate, RateCalc, RegressionCalc};
 use crate::calc::shell::{FillHeightCalc, TminCalc};
@@ -94,6 +96,10 @@ pub struct CourseResult {
     pub t_min: TminCalc,
     /// Measured condition; None when the course has no readings.
     pub condition: Option<CourseCondition>,
+    /// Extreme-value estimate of the course's thinnest spot from its drops at the
+    /// latest survey (methods.md s.8), or why there is none. An estimate beside the
+    /// measured minimum, never used in its place.
+    pub extreme_value: Result<ExtremeValue, NotApplicable>,
 }
 
 /// A liquid level limit and the course that sets it.
@@ -124,9 +130,9 @@ pub struct TankSummary {
     pub governing_course: Option<u32>,
     /// Remaining life of the governing course.
     pub remaining_life: Option<RemainingLife>,
-    /// Allowable liquid level now (least over measured courses).
+    /// Allowable liquid level now: the least over measured courses and scanned areas.
     pub max_fill_height: Option<FillLimit>,
-    /// Allowable liquid level at the next UT inspection.
+    /// Allowable liquid level at the next UT inspection (courses and areas).
     pub max_fill_height_next: Option<FillLimit>,
     /// UT thickness survey interval.
     pub ut_interval: TankInterval,
@@ -138,6 +144,11 @@ pub struct TankSummary {
     pub next_external_inspection: Option<NaiveDate>,
     /// Courses below t_min.
     pub below_minimum: Vec<u32>,
+    /// Index into `Assessment::areas` of the scanned area that sets
+    /// `max_fill_height` (None when a course sets it).
+    pub max_fill_height_area: Option<usize>,
+    /// The same for `max_fill_height_next`.
+    pub max_fill_height_next_area: Option<usize>,
 }
 
 /// The history of one thickness monitoring location.
@@ -190,4 +201,6 @@ pub struct Assessment {
     pub hydrotest: crate::calc::hydrotest::Hydrotest,
     /// For tanks over the one-foot limit: the variable-design-point comparison.
     pub variable_point: Option<crate::calc::hydrotest::VariablePointComparison>,
+    /// Scanned local thin areas (`scans/*.csv`), in file-name order.
+    pub areas: Vec<AreaAssessment>,
 }

@@ -210,6 +210,48 @@ pub enum Warning {
         /// The as-of date.
         as_of: NaiveDate,
     },
+    /// The readings of a course vary too much for their mean to represent it
+    /// (COV > 0.10, API 579-1 Part 4, from memory).
+    NonUniform {
+        /// Course.
+        course: u32,
+        /// s / mean of its latest survey.
+        cov: f64,
+        /// Whether a scan of the course is assessed.
+        scanned: bool,
+    },
+    /// Scans dated after the `--as-of` date were left out.
+    ScansAfterAsOf {
+        /// How many.
+        count: usize,
+        /// The as-of date.
+        as_of: NaiveDate,
+    },
+    /// A scanned course has no corrosion rate: its area is judged as measured.
+    AreaNoRate {
+        /// The scan file.
+        file: String,
+        /// Course.
+        course: u32,
+    },
+    /// No averaging window of a scan had half its cells valid: no t1.
+    AreaNoWindow {
+        /// The scan file.
+        file: String,
+        /// k.
+        rows_per_window: usize,
+    },
+    /// The extreme-value estimate of a course's thinnest spot is below its t_min.
+    ExtremeBelowMinimum {
+        /// Course.
+        course: u32,
+        /// The estimated least thickness.
+        estimate: Shown,
+        /// The course's t_min.
+        t_min: Shown,
+        /// Whether a scan of the course is assessed.
+        scanned: bool,
+    },
 }
 
 fn course_list(courses: &[u32]) -> String {
@@ -375,6 +417,59 @@ impl fmt::Display for Warning {
                 "course {course}: nominal {nominal} is below the {required} required by the \
                  {method} method"
             ),
+            Warning::NonUniform {
+                course,
+                cov,
+                scanned,
+            } => {
+                let then = if *scanned {
+                    "judge it on the scan of this course (Local areas)"
+                } else {
+                    "no scan of this course in scans/: scan a grid over its thinnest area"
+                };
+                write!(
+                    f,
+                    "course {course}: the readings vary too much for their average to represent \
+                     the course (COV {cov:.3} > 0.10, API 579-1 Part 4, from memory): treat the \
+                     loss as local; {then}"
+                )
+            }
+            Warning::ScansAfterAsOf { count, as_of } => write!(
+                f,
+                "{count} scan{} dated after {as_of} left out (--as-of)",
+                if *count == 1 { "" } else { "s" }
+            ),
+            Warning::AreaNoRate { file, course } => write!(
+                f,
+                "{file}: course {course} has no corrosion rate: the local-area rules are checked \
+                 as measured, without corrosion to the next inspection, and the area's level at \
+                 the next inspection is not computed"
+            ),
+            Warning::AreaNoWindow {
+                file,
+                rows_per_window,
+            } => write!(
+                f,
+                "{file}: no averaging window of {rows_per_window} rows has half its cells \
+                 measured: t1 not computed; fill the gaps or scan at a finer pitch"
+            ),
+            Warning::ExtremeBelowMinimum {
+                course,
+                estimate,
+                t_min,
+                scanned,
+            } => {
+                let then = if *scanned {
+                    "compare it with the scan of this course"
+                } else {
+                    "scan the course where its drops read thinnest"
+                };
+                write!(
+                    f,
+                    "course {course}: the extreme-value estimate of its thinnest spot, {estimate}, \
+                     is below t_min {t_min} (an estimate, not a measurement): {then}"
+                )
+            }
         }
     }
 }

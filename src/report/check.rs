@@ -5,7 +5,9 @@ use std::fmt::Write as _;
 use serde::Serialize;
 
 use crate::calc::screen::Screening;
+use crate::calc::units::UnitSystem;
 use crate::input::survey_csv::SurveyFileInfo;
+use crate::model::scan::Scan;
 use crate::model::tank::Tank;
 use crate::model::warning::Warning;
 use crate::report::text::{bold, bullet};
@@ -25,6 +27,16 @@ pub enum Checked {
         screening: Screening,
         /// Repeats and other remarks made while reading.
         remarks: Vec<Warning>,
+        /// Grid scans read (scans/*.csv).
+        scans: Vec<Scan>,
+    },
+    /// A lone grid scan file.
+    Scan {
+        /// The scan.
+        scan: Box<Scan>,
+        /// The id and units of the tank it was checked against (None without a
+        /// tank.toml above).
+        tank: Option<(String, UnitSystem)>,
     },
     /// A lone survey file.
     File {
@@ -61,6 +73,40 @@ fn count_table(s: &Screening, out: &mut String) {
     }
 }
 
+/// One line about a scan: course, date, grid, readings, pits, delimiter (with units
+/// when the tank is known).
+fn scan_line(s: &Scan, units: Option<UnitSystem>) -> String {
+    let (lu, tu) = units.map_or(("", ""), |u| (u.length_unit(), u.thickness_unit()));
+    let sp = |unit: &str| if unit.is_empty() { "" } else { " " };
+    let pits = match s.pit_threshold {
+        Some(p) => format!(
+            ", {} pit{} (below {}{}{tu})",
+            s.pits(),
+            if s.pits() == 1 { "" } else { "s" },
+            p.0,
+            sp(tu)
+        ),
+        None => String::new(),
+    };
+    format!(
+        "course {}, {}, {} rows x {} columns, bottom row at {}{}{lu}, row pitch {}{}{tu}, column \
+         pitch {}{}{tu}, {} readings, {} not measured{pits}, delimiter {}",
+        s.course,
+        s.date,
+        s.rows(),
+        s.columns(),
+        s.bottom_elevation.0,
+        sp(lu),
+        s.row_pitch.0,
+        sp(tu),
+        s.column_pitch.0,
+        sp(tu),
+        s.readings(),
+        s.not_measured(),
+        delimiter_name(s.delimiter)
+    )
+}
+
 /// Terminal text.
 pub fn render_text(items: &[Checked]) -> String {
     let mut o = String::new();
@@ -74,6 +120,7 @@ pub fn render_text(items: &[Checked]) -> String {
                 files,
                 screening,
                 remarks,
+                scans,
             } => {
                 ok += 1;
                 let readings: usize = screening.counts.values().sum();
@@ -122,6 +169,20 @@ pub fn render_text(items: &[Checked]) -> String {
                     let _ = writeln!(o, "  readings per course and date:");
                     count_table(screening, &mut o);
                 }
+                if !scans.is_empty() {
+                    let _ = writeln!(
+                        o,
+                        "  {} grid scan{}:",
+                        scans.len(),
+                        if scans.len() == 1 { "" } else { "s" },
+                    );
+                    for sc in scans {
+                        let line = format!("{}: {}", sc.file, scan_line(sc, Some(tank.units)));
+                        for line in bullet(&line).lines() {
+                            let _ = writeln!(o, "  {line}");
+                        }
+                    }
+                }
                 if !missing.is_empty() {
                     let _ = writeln!(o, "  courses without any reading: {}", missing.join(", "));
                 }
@@ -163,6 +224,27 @@ pub fn render_text(items: &[Checked]) -> String {
                     "  no tank.toml above this file: course range, units and nominal-based \
                      checks were not made"
                 );
+            }
+            Checked::Scan { scan, tank } => {
+                ok += 1;
+                let _ = writeln!(o, "{b}{}{b:#}: grid scan", scan.file);
+                let line = scan_line(scan, tank.as_ref().map(|t| t.1));
+                o.push_str(&crate::report::text::wrap(&line, 92, "  "));
+                match tank {
+                    Some((id, _)) => {
+                        let _ = writeln!(
+                            o,
+                            "  checked against tank {id} (course, elevations, nominal thickness)"
+                        );
+                    }
+                    None => {
+                        let _ = writeln!(
+                            o,
+                            "  no tank.toml above this file: course range, units and nominal-based \
+                             checks were not made"
+                        );
+                    }
+                }
             }
             Checked::Failed { path, .. } => {
                 let _ = writeln!(
@@ -208,6 +290,7 @@ struct JsonChecked {
     counts: Vec<JsonCount>,
     suspects: Vec<String>,
     error: Option<String>,
+    scans: Vec<String>,
 }
 
 /// JSON text: one record per path.
@@ -221,6 +304,7 @@ pub fn render_json(items: &[Checked]) -> String {
                 files,
                 screening,
                 remarks,
+                scans,
             } => JsonChecked {
                 path: dir.clone(),
                 ok: true,
@@ -235,6 +319,7 @@ pub fn render_json(items: &[Checked]) -> String {
                     .map(ToString::to_string)
                     .collect(),
                 error: None,
+                scans: scans.iter().map(|x| x.file.clone()).collect(),
             },
             Checked::File { info, screening } => JsonChecked {
                 path: info.path.clone(),
@@ -245,6 +330,18 @@ pub fn render_json(items: &[Checked]) -> String {
                 counts: counts(screening),
                 suspects: Vec::new(),
                 error: None,
+                scans: Vec::new(),
+            },
+            Checked::Scan { scan, tank } => JsonChecked {
+                path: scan.file.clone(),
+                ok: true,
+                tank_id: tank.as_ref().map(|t| t.0.clone()),
+                files: Vec::new(),
+                readings: scan.readings(),
+                counts: Vec::new(),
+                suspects: Vec::new(),
+                error: None,
+                scans: vec![scan.file.clone()],
             },
             Checked::Failed { path, message } => JsonChecked {
                 path: path.clone(),
@@ -255,6 +352,7 @@ pub fn render_json(items: &[Checked]) -> String {
                 counts: Vec::new(),
                 suspects: Vec::new(),
                 error: Some(message.clone()),
+                scans: Vec::new(),
             },
         })
         .collect();

@@ -9,4 +9,5 @@ mod properties;
 mod reference;
 mod required;
 mod samples;
+mod scans;
 mod support;
