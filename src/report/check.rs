@@ -126,14 +126,14 @@ pub fn render_text(items: &[Checked]) -> String {
                 let readings: usize = screening.counts.values().sum();
                 let _ = writeln!(
                     o,
-                    "{b}{dir}{b:#}: tank {}{}, {}, {} courses, D {} {}",
+                    "{b}{dir}{b:#}: tank {}{}, {}, {}, D {} {}",
                     tank.id,
                     tank.name
                         .as_deref()
                         .map(|n| format!(" - {n}"))
                         .unwrap_or_default(),
                     tank.units,
-                    tank.courses.len(),
+                    plural(tank.courses.len(), "course"),
                     tank.diameter.0,
                     tank.units.length_unit()
                 );
@@ -262,7 +262,22 @@ pub fn render_text(items: &[Checked]) -> String {
         items.len(),
         if items.len() == 1 { "" } else { "s" }
     );
+    o.push('\n');
+    o.push_str(&crate::report::text::wrap(
+        &format!("Caution: {}", crate::report::caution::CAUTION),
+        crate::report::text::WRAP,
+        "",
+    ));
     o
+}
+
+/// "1 course", "3 courses".
+pub fn plural(n: usize, word: &str) -> String {
+    if n == 1 {
+        format!("{n} {word}")
+    } else {
+        format!("{n} {word}s")
+    }
 }
 
 fn delimiter_name(d: char) -> &'static str {
@@ -356,7 +371,16 @@ pub fn render_json(items: &[Checked]) -> String {
             },
         })
         .collect();
-    let mut s = serde_json::to_string_pretty(&records).unwrap_or_default();
+    #[derive(Serialize)]
+    struct Document {
+        paths: Vec<JsonChecked>,
+        caution: &'static str,
+    }
+    let doc = Document {
+        paths: records,
+        caution: crate::report::caution::CAUTION,
+    };
+    let mut s = serde_json::to_string_pretty(&doc).unwrap_or_default();
     s.push('\n');
     s
 }
