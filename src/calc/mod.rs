@@ -15,4 +15,5 @@ pub mod screen;
 pub mod shell;
 pub mod stress;
 pub mod survey;
+pub mod tally;
 pub mod units;

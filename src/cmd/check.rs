@@ -7,8 +7,8 @@ use crate::calc::screen::screen;
 use crate::cli::{CheckArgs, Format};
 use crate::input::error::{InputError, InputErrorKind, Location};
 use crate::input::survey_csv::{SurveyContext, read_survey};
-use crate::input::tank_dir::{TANK_FILE, context_of, load_tank_dir, load_tank_file};
-use crate::model::reading::ReadingSet;
+use crate::input::tank_dir::{RepeatFilter, TANK_FILE, context_of, load_tank_dir, load_tank_file};
+use crate::model::reading::{PointNames, ReadingSet};
 use crate::report::check::{Checked, render_json, render_text};
 use crate::report::write;
 use crate::{Error, Outcome};
@@ -86,14 +86,17 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
         },
     };
     let shown = display(path);
-    let bytes = std::fs::read(path)
+    let file = std::fs::File::open(path)
         .map_err(|e| InputError::new(Location::file(shown.clone()), InputErrorKind::Io(e)))?;
-    let mut set = ReadingSet::default();
-    let info = read_survey(&shown, &bytes, 0, &ctx, &mut set.readings)?;
-    set.files.push(shown);
+    let mut points = PointNames::default();
+    let mut readings = Vec::new();
     match tank {
         Some(t) => {
-            let remarks = crate::input::tank_dir::remove_repeats(&t, &mut set)?;
+            let mut filter = RepeatFilter::new(t.units, &mut readings);
+            filter.files.push(shown.clone());
+            let info = read_survey(&shown, file, 0, &ctx, &mut points, &mut filter)?;
+            let (files, remarks) = filter.finish()?;
+            let set = ReadingSet { files, readings };
             let screening = screen(Some(&t), &set);
             Ok(Checked::Tank {
                 dir: info.path.clone(),
@@ -103,9 +106,16 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
                 remarks,
             })
         }
-        None => Ok(Checked::File {
-            screening: screen(None, &set),
-            info,
-        }),
+        None => {
+            let info = read_survey(&shown, file, 0, &ctx, &mut points, &mut readings)?;
+            let set = ReadingSet {
+                files: vec![shown],
+                readings,
+            };
+            Ok(Checked::File {
+                screening: screen(None, &set),
+                info,
+            })
+        }
     }
 }

@@ -9,11 +9,12 @@ use std::path::Path;
 use chrono::NaiveDate;
 
 use crate::Error;
-use crate::calc::assess::{AssessOptions, assess};
+use crate::calc::assess::{AssessOptions, assess_tally};
+use crate::calc::tally::Tally;
 use crate::calc::units::{Length, UnitSystem};
 use crate::cli::{ColorArg, Format, TankArgs, UnitsArg};
 use crate::input::error::{InputError, InputErrorKind, Location};
-use crate::input::tank_dir::{TankFolder, load_tank_dir};
+use crate::input::tank_dir::{load_tank_file, stream_surveys};
 use crate::model::result::Assessment;
 use crate::report::write::ColorWhen;
 
@@ -59,36 +60,48 @@ pub fn load_and_assess(
     args: &TankArgs,
     specific_gravity: Option<f64>,
     fill_height: Option<f64>,
-) -> Result<(TankFolder, Assessment), Error> {
-    let folder = load_tank_dir(&args.dir, today())?;
-    if let Some(h) = fill_height {
-        let shell = folder.tank.shell_height();
-        if h > shell.0 + 1e-9 {
-            let lu = folder.tank.units.length_unit();
-            return Err(Error::Input(InputError::new(
-                Location::file(display(&args.dir)),
-                InputErrorKind::InvalidValue {
-                    key: "option --fill-height".into(),
-                    value: format!("{h} {lu}"),
-                    problem: format!("is above the shell height {} {lu}", shell.0),
-                },
-            )));
-        }
-    }
+) -> Result<Assessment, Error> {
     let options = AssessOptions {
         as_of: args.as_of,
         specific_gravity,
         fill_height: fill_height.map(Length),
     };
-    let mut a =
-        assess(&folder.tank, &folder.readings, options).map_err(|source| Error::Assess {
-            dir: display(&args.dir),
-            source,
-        })?;
-    let mut remarks = folder.warnings.clone();
+    assess_dir(&args.dir, today(), options)
+}
+
+/// Reads a tank folder and assesses it. The survey files stream through a [`Tally`]
+/// (nothing per reading is kept) and the tally is dropped on return, so memory is
+/// that of one tank's courses, survey dates and points. `today` bounds survey dates.
+pub fn assess_dir(
+    dir: &Path,
+    today: NaiveDate,
+    options: AssessOptions,
+) -> Result<Assessment, Error> {
+    let tank = load_tank_file(dir)?;
+    let mut tally = Tally::new(&tank, options);
+    let read = stream_surveys(dir, &tank, today, &mut tally)?;
+    if let Some(h) = options.fill_height {
+        let shell = tank.shell_height();
+        if h.0 > shell.0 + 1e-9 {
+            let lu = tank.units.length_unit();
+            return Err(Error::Input(InputError::new(
+                Location::file(display(dir)),
+                InputErrorKind::InvalidValue {
+                    key: "option --fill-height".into(),
+                    value: format!("{} {lu}", h.0),
+                    problem: format!("is above the shell height {} {lu}", shell.0),
+                },
+            )));
+        }
+    }
+    let mut a = assess_tally(&tank, &tally, &read.files).map_err(|source| Error::Assess {
+        dir: display(dir),
+        source,
+    })?;
+    let mut remarks = read.remarks;
     remarks.append(&mut a.warnings);
     a.warnings = remarks;
-    Ok((folder, a))
+    Ok(a)
 }
 
 /// A path as the user gave it.

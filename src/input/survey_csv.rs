@@ -1,4 +1,4 @@
-//! Reads survey CSV files (formats.md "Survey CSV") into [`Reading`]s.
+//! Reads survey CSV files (formats.md "Survey CSV") row by row into readings.
 //!
 //! - Header row required; names are case-insensitive; unknown and repeated names are
 //!   refused (with the nearest known name suggested).
@@ -7,16 +7,22 @@
 //!   tolerated; lines starting with `#` are comments; blank lines are skipped.
 //! - Unit-suffixed columns (`thickness_mm`, `thickness_in`, `elevation_m`,
 //!   `elevation_ft`) are converted to the tank's units.
-//! - Every row is either returned or refused with its line, column and value.
+//! - Every row is either handed on or refused with its line, column and value.
 //!
 //! The csv crate does the CSV; this module only decides what each field means.
+//!
+//! Streaming: the file is read through a buffer and each row is parsed in place
+//! (fields stay in the csv crate's record, nothing is allocated per row) and handed to
+//! a [`ReadingSink`] at once; memory does not grow with the number of rows.
+
+use std::io::{BufRead, BufReader, Read};
 
 use chrono::NaiveDate;
 
 use super::error::{InputError, InputErrorKind, Location, nearest};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
-use crate::model::reading::{Origin, Reading};
+use crate::model::reading::{Origin, PointNames, PointRef, ReadingRef, ReadingSink};
 use crate::model::warning::Shown;
 
 /// Every column name the reader knows.
@@ -148,27 +154,63 @@ pub fn detect_delimiter(bytes: &[u8]) -> u8 {
     }
 }
 
-/// Reads one survey file from its bytes. Readings are appended to `out` with
-/// `file_index` as their origin; returns what was found.
-pub fn read_survey(
+/// Bytes the reader asks the file for at a time.
+const READ_BUFFER: usize = 64 * 1024;
+
+/// Reads the start of `input` up to and including the first line that is neither
+/// blank nor a comment (the line the delimiter is detected from), without the
+/// byte-order mark. Returns those bytes and the rest of the input.
+fn sniff<R: Read>(input: R) -> std::io::Result<(Vec<u8>, BufReader<R>)> {
+    let mut rest = BufReader::with_capacity(8 * 1024, input);
+    let mut prefix = Vec::new();
+    loop {
+        let start = prefix.len();
+        if rest.read_until(b'\n', &mut prefix)? == 0 {
+            break;
+        }
+        if start == 0 && prefix.starts_with(BOM) {
+            prefix.drain(..BOM.len());
+        }
+        let line = &prefix[start..];
+        let line = line.strip_suffix(b"\n").unwrap_or(line);
+        let line = line.strip_suffix(b"\r").unwrap_or(line);
+        if !line.iter().all(u8::is_ascii_whitespace) && !line.starts_with(b"#") {
+            break;
+        }
+    }
+    Ok((prefix, rest))
+}
+
+/// A field of a record without surrounding ASCII white space (the csv crate's
+/// `Trim::All` does the same, but copies every record to do it).
+fn field(record: &csv::ByteRecord, i: usize) -> &[u8] {
+    record.get(i).unwrap_or(&[]).trim_ascii()
+}
+
+/// Reads one survey file from `input`, handing each reading to `sink` as soon as its
+/// row is parsed, with `file_index` as its origin. Point ids get their keys from
+/// `points` (one interner per tank). Returns what was found.
+pub fn read_survey<R: Read>(
     path: &str,
-    bytes: &[u8],
+    input: R,
     file_index: u32,
     ctx: &SurveyContext,
-    out: &mut Vec<Reading>,
+    points: &mut PointNames,
+    sink: &mut impl ReadingSink,
 ) -> Result<SurveyFileInfo, InputError> {
-    let bytes = bytes.strip_prefix(BOM).unwrap_or(bytes);
-    let delimiter = detect_delimiter(bytes);
+    let (prefix, rest) =
+        sniff(input).map_err(|e| InputError::new(Location::file(path), InputErrorKind::Io(e)))?;
+    let delimiter = detect_delimiter(&prefix);
     let mut reader = csv::ReaderBuilder::new()
         .has_headers(false)
         .flexible(true)
         .delimiter(delimiter)
         .comment(Some(b'#'))
-        .trim(csv::Trim::All)
-        .from_reader(bytes);
+        .buffer_capacity(READ_BUFFER)
+        .from_reader(std::io::Cursor::new(prefix).chain(rest));
     let mut record = csv::ByteRecord::new();
     let at = |line: u64| Location::line(path, line);
-    let read = |reader: &mut csv::Reader<&[u8]>, record: &mut csv::ByteRecord| {
+    let read = |reader: &mut csv::Reader<_>, record: &mut csv::ByteRecord| {
         reader.read_byte_record(record).map_err(|e| {
             let line = e.position().map_or(1, |p| p.line());
             InputError::new(
@@ -185,18 +227,17 @@ pub fn read_survey(
     }
     let header_line = record.position().map_or(1, csv::Position::line);
     let cols = header(path, header_line, &record)?;
-    let row_parser = RowParser {
+    let mut row_parser = RowParser {
         path,
         ctx,
         cols: &cols,
         delimiter,
         date_cache: None,
     };
-    let mut row_parser = row_parser;
     let mut rows = 0usize;
     while read(&mut reader, &mut record)? {
         let line = record.position().map_or(0, csv::Position::line);
-        if record.len() == 1 && record.get(0).is_some_and(<[u8]>::is_empty) {
+        if record.len() == 1 && field(&record, 0).is_empty() {
             continue;
         }
         if record.len() != cols.names.len() {
@@ -208,7 +249,8 @@ pub fn read_survey(
                 },
             ));
         }
-        out.push(row_parser.parse(&record, line, file_index)?);
+        let reading = row_parser.parse(&record, line, file_index, points)?;
+        sink.accept(&reading);
         rows += 1;
     }
     if rows == 0 {
@@ -236,7 +278,7 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
     let mut seen: Vec<(Field, usize, String)> = Vec::new();
     let mut names = Vec::with_capacity(record.len());
     for (i, raw) in record.iter().enumerate() {
-        let name = std::str::from_utf8(raw)
+        let name = std::str::from_utf8(raw.trim_ascii())
             .map_err(|_| InputError::new(at(), InputErrorKind::NotUtf8 { column: None }))?;
         names.push(name.to_string());
         let lower = name.to_ascii_lowercase();
@@ -345,8 +387,7 @@ impl RowParser<'_> {
         i: usize,
         line: u64,
     ) -> Result<&'r str, InputError> {
-        let raw = record.get(i).unwrap_or(&[]);
-        std::str::from_utf8(raw).map_err(|_| {
+        std::str::from_utf8(field(record, i)).map_err(|_| {
             InputError::new(
                 self.at(line),
                 InputErrorKind::NotUtf8 {
@@ -433,12 +474,13 @@ impl RowParser<'_> {
         }
     }
 
-    fn parse(
+    fn parse<'r>(
         &mut self,
-        record: &csv::ByteRecord,
+        record: &'r csv::ByteRecord,
         line: u64,
         file_index: u32,
-    ) -> Result<Reading, InputError> {
+        points: &mut PointNames,
+    ) -> Result<ReadingRef<'r>, InputError> {
         let ctx = self.ctx;
         let cols = self.cols;
         let date = self.date(record, line)?;
@@ -508,7 +550,10 @@ impl RowParser<'_> {
         let point = match cols.point {
             Some(i) => Some(self.text(record, i, line)?)
                 .filter(|s| !s.is_empty())
-                .map(Box::from),
+                .map(|id| PointRef {
+                    key: points.key(id),
+                    id,
+                }),
             None => None,
         };
         let elevation = match cols.elevation {
@@ -564,12 +609,10 @@ impl RowParser<'_> {
             None => None,
         };
         let note = match cols.note {
-            Some(i) => Some(self.text(record, i, line)?)
-                .filter(|s| !s.is_empty())
-                .map(Box::from),
+            Some(i) => Some(self.text(record, i, line)?).filter(|s| !s.is_empty()),
             None => None,
         };
-        Ok(Reading {
+        Ok(ReadingRef {
             date,
             course,
             thickness,
@@ -586,7 +629,7 @@ impl RowParser<'_> {
 
     fn date(&mut self, record: &csv::ByteRecord, line: u64) -> Result<NaiveDate, InputError> {
         let i = self.cols.date;
-        let raw = record.get(i).unwrap_or(&[]);
+        let raw = field(record, i);
         if let Some((text, date)) = &self.date_cache
             && text.as_slice() == raw
         {
