@@ -7,6 +7,7 @@
 pub mod assess;
 pub mod constants;
 pub mod fill_height;
+pub mod fleet;
 pub mod life;
 pub mod materials;
 pub mod points;

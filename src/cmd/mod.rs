@@ -3,6 +3,7 @@
 pub mod assess;
 pub mod check;
 pub mod fill_height;
+pub mod fleet;
 
 use std::path::Path;
 
@@ -16,6 +17,7 @@ use crate::cli::{ColorArg, Format, TankArgs, UnitsArg};
 use crate::input::error::{InputError, InputErrorKind, Location};
 use crate::input::tank_dir::{load_tank_file, stream_surveys};
 use crate::model::result::Assessment;
+use crate::model::tank::Tank;
 use crate::report::write::ColorWhen;
 
 /// Options every command shares.
@@ -78,8 +80,18 @@ pub fn assess_dir(
     options: AssessOptions,
 ) -> Result<Assessment, Error> {
     let tank = load_tank_file(dir)?;
-    let mut tally = Tally::new(&tank, options);
-    let read = stream_surveys(dir, &tank, today, &mut tally)?;
+    assess_tank(dir, &tank, today, options)
+}
+
+/// [`assess_dir`] for a tank whose tank.toml is already read.
+pub fn assess_tank(
+    dir: &Path,
+    tank: &Tank,
+    today: NaiveDate,
+    options: AssessOptions,
+) -> Result<Assessment, Error> {
+    let mut tally = Tally::new(tank, options);
+    let read = stream_surveys(dir, tank, today, &mut tally)?;
     if let Some(h) = options.fill_height {
         let shell = tank.shell_height();
         if h.0 > shell.0 + 1e-9 {
@@ -94,7 +106,7 @@ pub fn assess_dir(
             )));
         }
     }
-    let mut a = assess_tally(&tank, &tally, &read.files).map_err(|source| Error::Assess {
+    let mut a = assess_tally(tank, &tally, &read.files).map_err(|source| Error::Assess {
         dir: display(dir),
         source,
     })?;
