@@ -438,13 +438,27 @@ impl RowParser<'_> {
     }
 
     /// A finite number; decimal comma accepted when the delimiter is `;` or tab.
+    /// `expected` describes the value for messages (made only when one is needed).
     fn number(
         &self,
         record: &csv::ByteRecord,
         i: usize,
         line: u64,
-        expected: &str,
+        expected: &dyn Fn() -> String,
     ) -> Result<Option<f64>, InputError> {
+        let raw = field(record, i);
+        if raw.is_empty() {
+            return Ok(None);
+        }
+        // Fast path: what fast-float2 reads to a finite number, Rust's own parser reads
+        // to the same bits (see the test `fast_numbers_are_std_numbers`); anything else
+        // (decimal comma, errors) takes the path below with its messages.
+        if let Ok(v) = fast_float2::parse::<f64, _>(raw)
+            && v.is_finite()
+        {
+            return Ok(Some(v));
+        }
+        let expected = expected();
         let s = self.text(record, i, line)?;
         if s.is_empty() {
             return Ok(None);
@@ -515,14 +529,17 @@ impl RowParser<'_> {
         // thickness
         let (ti, suffix) = cols.thickness;
         let unit_name = suffix_unit(suffix, ctx.units, true);
-        let expected = format!(
-            "a thickness in {unit_name}, e.g. {}",
-            example_thickness(unit_name)
-        );
+        let expected = || {
+            format!(
+                "a thickness in {unit_name}, e.g. {}",
+                example_thickness(unit_name)
+            )
+        };
         let raw = self
             .number(record, ti, line, &expected)?
-            .ok_or_else(|| self.empty(line, ti, expected.clone()))?;
+            .ok_or_else(|| self.empty(line, ti, expected()))?;
         if raw <= 0.0 {
+            let expected = expected();
             return Err(self.range(
                 line,
                 ti,
@@ -559,10 +576,11 @@ impl RowParser<'_> {
         let elevation = match cols.elevation {
             Some((i, suffix)) => {
                 let unit_name = suffix_unit(suffix, ctx.units, false);
-                let expected = format!("a height above the tank bottom in {unit_name}");
+                let expected = || format!("a height above the tank bottom in {unit_name}");
                 match self.number(record, i, line, &expected)? {
                     None => None,
                     Some(v) if v < 0.0 => {
+                        let expected = expected();
                         return Err(self.range(
                             line,
                             i,
@@ -594,18 +612,20 @@ impl RowParser<'_> {
             None => None,
         };
         let azimuth = match cols.azimuth {
-            Some(i) => match self.number(record, i, line, "degrees from 0 to 360")? {
-                None => None,
-                Some(a) if (0.0..=360.0).contains(&a) => Some(a),
-                Some(a) => {
-                    return Err(self.range(
-                        line,
-                        i,
-                        a.to_string(),
-                        "is outside 0 to 360 degrees".into(),
-                    ));
+            Some(i) => {
+                match self.number(record, i, line, &|| "degrees from 0 to 360".to_string())? {
+                    None => None,
+                    Some(a) if (0.0..=360.0).contains(&a) => Some(a),
+                    Some(a) => {
+                        return Err(self.range(
+                            line,
+                            i,
+                            a.to_string(),
+                            "is outside 0 to 360 degrees".into(),
+                        ));
+                    }
                 }
-            },
+            }
             None => None,
         };
         let note = match cols.note {
@@ -730,5 +750,71 @@ fn convert_length(v: f64, suffix: Suffix, units: Option<UnitSystem>) -> Length {
     match (suffix_system(suffix), units) {
         (Some(from), Some(to)) => Length(v).convert(from, to),
         _ => Length(v),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use proptest::prelude::*;
+
+    /// Reference: Rust's own `f64::from_str`. Whatever fast-float2 reads to a finite
+    /// number, the standard parser reads to the same bits, so taking the fast path
+    /// changes no value and no message.
+    fn agrees(text: &str) {
+        if let Ok(v) = fast_float2::parse::<f64, _>(text.as_bytes())
+            && v.is_finite()
+        {
+            let std: f64 = text
+                .parse()
+                .unwrap_or_else(|_| panic!("fast-float read {text:?}, std refuses it"));
+            assert_eq!(v.to_bits(), std.to_bits(), "{text:?}");
+        }
+    }
+
+    #[test]
+    fn fast_numbers_are_std_numbers_on_edge_cases() {
+        for t in [
+            "0",
+            "-0",
+            "+1",
+            "1.",
+            ".5",
+            "-.5",
+            "1e5",
+            "1E-5",
+            "1e",
+            "e5",
+            ".",
+            "-",
+            "+",
+            "1.2.3",
+            "1,5",
+            "0x10",
+            "1_000",
+            "inf",
+            "-infinity",
+            "NaN",
+            "1e400",
+            "1e-400",
+            "00012.50",
+            "12.345678901234567890",
+            "9007199254740993",
+            " 1",
+            "1 ",
+        ] {
+            agrees(t);
+        }
+    }
+
+    proptest! {
+        #[test]
+        fn fast_numbers_are_std_numbers(text in "[-+]?[0-9]{0,20}(\\.[0-9]{0,20})?([eE][-+]?[0-9]{1,3})?") {
+            agrees(&text);
+        }
+
+        #[test]
+        fn fast_numbers_are_std_numbers_on_any_text(text in "[-+.,eE0-9a-z ]{0,12}") {
+            agrees(&text);
+        }
     }
 }

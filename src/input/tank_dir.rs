@@ -4,10 +4,11 @@
 //! on at once (through [`RepeatFilter`], which settles repeated points); nothing keeps
 //! the rows unless the receiving [`ReadingSink`] does.
 
-use std::collections::HashMap;
+use std::collections::hash_map::Entry;
 use std::path::Path;
 
 use chrono::NaiveDate;
+use rustc_hash::FxHashMap;
 
 use super::error::{InputError, InputErrorKind, Location};
 use super::survey_csv::{SurveyContext, SurveyFileInfo, read_survey};
@@ -203,7 +204,7 @@ pub struct RepeatFilter<'s, S> {
     units: UnitSystem,
     /// Files read so far, as displayed (index = `Origin::file`).
     pub files: Vec<String>,
-    first: HashMap<(PointKey, NaiveDate), FirstReading>,
+    first: FxHashMap<(PointKey, NaiveDate), FirstReading>,
     remarks: Vec<Warning>,
     conflict: Option<InputError>,
 }
@@ -215,7 +216,7 @@ impl<'s, S: ReadingSink> RepeatFilter<'s, S> {
             inner,
             units,
             files: Vec::new(),
-            first: HashMap::new(),
+            first: FxHashMap::default(),
             remarks: Vec::new(),
             conflict: None,
         }
@@ -245,7 +246,7 @@ impl<S: ReadingSink> ReadingSink for RepeatFilter<'_, S> {
             return;
         };
         let a = match self.first.entry((point.key, r.date)) {
-            std::collections::hash_map::Entry::Vacant(v) => {
+            Entry::Vacant(v) => {
                 v.insert(FirstReading {
                     thickness: r.thickness,
                     course: r.course,
@@ -254,7 +255,7 @@ impl<S: ReadingSink> ReadingSink for RepeatFilter<'_, S> {
                 self.inner.accept(r);
                 return;
             }
-            std::collections::hash_map::Entry::Occupied(o) => *o.get(),
+            Entry::Occupied(o) => *o.get(),
         };
         if a.thickness != r.thickness || a.course != r.course {
             if self.conflict.is_none() {

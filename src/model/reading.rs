@@ -150,7 +150,7 @@ impl ReadingSink for Vec<Reading> {
 /// the hash map is asked.
 #[derive(Debug, Clone, Default)]
 pub struct PointNames {
-    keys: std::collections::HashMap<Box<str>, u32>,
+    keys: rustc_hash::FxHashMap<Box<str>, u32>,
     names: Vec<Box<str>>,
     previous: Option<u32>,
 }
