@@ -74,14 +74,16 @@ pub fn assess(
     for r in &readings.readings {
         tally.accept(&r.borrow(&mut names));
     }
-    assess_tally(tank, &tally, &readings.files)
+    assess_tally(tank, &tally, &names, &readings.files)
 }
 
-/// Assesses `tank` from the tally of its readings; `files` names the files the
-/// readings came from (index = `Origin::file`), for the warnings.
+/// Assesses `tank` from the tally of its readings; `names` holds the point ids the
+/// tally's keys stand for, `files` the files the readings came from (index =
+/// `Origin::file`), for the warnings.
 pub fn assess_tally(
     tank: &Tank,
     tally: &Tally,
+    names: &PointNames,
     files: &[String],
 ) -> Result<Assessment, AssessError> {
     let options = tally.options;
@@ -285,13 +287,15 @@ pub fn assess_tally(
     };
 
     // 4. Points.
-    let mut spans: Vec<_> = tally.points().iter().collect();
-    spans.sort_by(|a, b| (a.course, &a.point).cmp(&(b.course, &b.point)));
+    let name = |k: crate::model::reading::PointKey| names.name(k).unwrap_or("");
+    let mut spans: Vec<_> = tally.points().iter().map(|(k, p)| (name(*k), p)).collect();
+    // (course, id) is unique: an unstable sort gives the one order.
+    spans.sort_unstable_by(|a, b| (a.1.course, a.0).cmp(&(b.1.course, b.0)));
     let points: Vec<_> = spans
         .into_iter()
-        .filter_map(|p| {
+        .filter_map(|(id, p)| {
             let t_min = courses.iter().find(|c| c.number == p.course)?.t_min.value;
-            Some(point_result_of(p, t_min))
+            Some(point_result_of(id.to_string(), p, t_min))
         })
         .collect();
     let hot = hot_spots(&points);

@@ -38,8 +38,6 @@ pub struct PointHistory {
 /// so a point's readings need not be kept.
 #[derive(Debug, Clone, PartialEq)]
 pub struct PointSpan {
-    /// Point id.
-    pub point: String,
     /// Course.
     pub course: u32,
     /// Number of dated readings.
@@ -57,14 +55,12 @@ pub struct PointSpan {
 impl PointSpan {
     /// A point seen once.
     pub fn new(
-        point: String,
         course: u32,
         reading: (NaiveDate, Thickness),
         elevation: Option<Length>,
         azimuth: Option<f64>,
     ) -> Self {
         PointSpan {
-            point,
             course,
             surveys: 1,
             first: reading,
@@ -96,7 +92,6 @@ impl PointSpan {
 /// Rate and remaining life of one point, against its course's `t_min`.
 pub fn point_result(history: &PointHistory, t_min: Thickness) -> Option<PointResult> {
     let span = PointSpan {
-        point: history.point.clone(),
         course: history.course,
         surveys: history.readings.len(),
         first: *history.readings.first()?,
@@ -104,17 +99,17 @@ pub fn point_result(history: &PointHistory, t_min: Thickness) -> Option<PointRes
         elevation: history.elevation,
         azimuth: history.azimuth,
     };
-    Some(point_result_of(&span, t_min))
+    Some(point_result_of(history.point.clone(), &span, t_min))
 }
 
-/// [`point_result`] of a point gathered as a [`PointSpan`].
-pub fn point_result_of(span: &PointSpan, t_min: Thickness) -> PointResult {
+/// [`point_result`] of the point `point` gathered as a [`PointSpan`].
+pub fn point_result_of(point: String, span: &PointSpan, t_min: Thickness) -> PointResult {
     let (first, last) = (span.first, span.last);
     let years = years_between(first.0, last.0);
     let rate = (span.surveys >= 2 && years > 0.0).then(|| Rate((first.1.0 - last.1.0) / years));
     let life = remaining_life(last.1, t_min, rate.map(|r| Rate(r.0.max(0.0))));
     PointResult {
-        point: span.point.clone(),
+        point,
         course: span.course,
         elevation: span.elevation,
         azimuth: span.azimuth,

@@ -11,7 +11,9 @@
 //! Readings dated after the assessment date (`--as-of`) are counted and left out, as
 //! the methods use only the surveys up to that date.
 
-use std::collections::{BTreeMap, HashMap};
+use std::collections::BTreeMap;
+
+use rustc_hash::FxHashMap;
 
 use chrono::NaiveDate;
 
@@ -64,11 +66,11 @@ pub struct Tally {
     groups: Vec<SurveyGroup>,
     group_index: BTreeMap<(u32, NaiveDate), usize>,
     last_group: Option<(u32, NaiveDate, usize)>,
-    points: Vec<PointSpan>,
+    points: Vec<(PointKey, PointSpan)>,
     /// Span of each point key, for the course the key was first seen on.
     span_of_key: Vec<u32>,
     /// Spans of a key on another course (the same id reused on another course).
-    span_of_key_elsewhere: HashMap<(u32, PointKey), u32>,
+    span_of_key_elsewhere: FxHashMap<(u32, PointKey), u32>,
     /// Suspect readings, in the order read.
     pub suspects: Vec<Suspect>,
 }
@@ -90,7 +92,7 @@ impl Tally {
             last_group: None,
             points: Vec::new(),
             span_of_key: Vec::new(),
-            span_of_key_elsewhere: HashMap::new(),
+            span_of_key_elsewhere: FxHashMap::default(),
             suspects: Vec::new(),
         }
     }
@@ -139,8 +141,8 @@ impl Tally {
             .map(|(_, &i)| &self.groups[i])
     }
 
-    /// Every point, in no particular order.
-    pub fn points(&self) -> &[PointSpan] {
+    /// Every point with its key, in no particular order.
+    pub fn points(&self) -> &[(PointKey, PointSpan)] {
         &self.points
     }
 
@@ -167,20 +169,19 @@ impl ReadingSink for Tally {
             }
             let i = match self.span_of_key[slot] {
                 NONE => None,
-                i if self.points[i as usize].course == r.course => Some(i),
+                i if self.points[i as usize].1.course == r.course => Some(i),
                 _ => self.span_of_key_elsewhere.get(&(r.course, p.key)).copied(),
             };
             let reading = (r.date, r.thickness);
             match i {
-                Some(i) => self.points[i as usize].add(reading, r.elevation, r.azimuth),
+                Some(i) => self.points[i as usize]
+                    .1
+                    .add(reading, r.elevation, r.azimuth),
                 None => {
                     let i = self.points.len() as u32;
-                    self.points.push(PointSpan::new(
-                        p.id.to_string(),
-                        r.course,
-                        reading,
-                        r.elevation,
-                        r.azimuth,
+                    self.points.push((
+                        p.key,
+                        PointSpan::new(r.course, reading, r.elevation, r.azimuth),
                     ));
                     if self.span_of_key[slot] == NONE {
                         self.span_of_key[slot] = i;

@@ -16,6 +16,7 @@ use crate::calc::units::{Length, UnitSystem};
 use crate::cli::{ColorArg, Format, TankArgs, UnitsArg};
 use crate::input::error::{InputError, InputErrorKind, Location};
 use crate::input::tank_dir::{load_tank_file, stream_surveys};
+use crate::model::reading::PointNames;
 use crate::model::result::Assessment;
 use crate::model::tank::Tank;
 use crate::report::write::ColorWhen;
@@ -91,7 +92,8 @@ pub fn assess_tank(
     options: AssessOptions,
 ) -> Result<Assessment, Error> {
     let mut tally = Tally::new(tank, options);
-    let read = stream_surveys(dir, tank, today, &mut tally)?;
+    let mut names = PointNames::default();
+    let read = stream_surveys(dir, tank, today, &mut names, &mut tally)?;
     if let Some(h) = options.fill_height {
         let shell = tank.shell_height();
         if h.0 > shell.0 + 1e-9 {
@@ -106,10 +108,11 @@ pub fn assess_tank(
             )));
         }
     }
-    let mut a = assess_tally(tank, &tally, &read.files).map_err(|source| Error::Assess {
-        dir: display(dir),
-        source,
-    })?;
+    let mut a =
+        assess_tally(tank, &tally, &names, &read.files).map_err(|source| Error::Assess {
+            dir: display(dir),
+            source,
+        })?;
     let mut remarks = read.remarks;
     remarks.append(&mut a.warnings);
     a.warnings = remarks;

@@ -15,7 +15,8 @@
 //! (fields stay in the csv crate's record, nothing is allocated per row) and handed to
 //! a [`ReadingSink`] at once; memory does not grow with the number of rows.
 
-use std::io::{BufRead, BufReader, Read};
+use std::cell::RefCell;
+use std::io::{BufRead, BufReader, Read, Seek, SeekFrom};
 
 use chrono::NaiveDate;
 
@@ -187,10 +188,74 @@ fn field(record: &csv::ByteRecord, i: usize) -> &[u8] {
     record.get(i).unwrap_or(&[]).trim_ascii()
 }
 
+/// The input of a reused csv reader: replaced between files.
+struct Source(Box<dyn Read>);
+
+impl Read for Source {
+    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
+        self.0.read(buf)
+    }
+}
+
+/// Rewinding to the start is how a reused reader is pointed at its next file (the
+/// input itself is swapped just after); no other seek is asked for.
+impl Seek for Source {
+    fn seek(&mut self, pos: SeekFrom) -> std::io::Result<u64> {
+        match pos {
+            SeekFrom::Start(0) => Ok(0),
+            _ => Err(std::io::Error::other("survey input cannot seek")),
+        }
+    }
+}
+
+type CsvReader = csv::Reader<Source>;
+
+thread_local! {
+    /// Csv readers kept for reuse on this thread, one per delimiter. Building a csv
+    /// reader compiles its parser tables, which costs more than reading a survey file of
+    /// a few hundred rows; a fleet reads thousands of files.
+    static READERS: RefCell<Vec<(u8, CsvReader)>> = const { RefCell::new(Vec::new()) };
+}
+
+/// Runs `f` with a csv reader for `delimiter` reading `input` from its first byte: a
+/// reader of this thread rewound and given the new input (the csv crate's `seek_raw`
+/// resets its parser, line count and end-of-file state), or a new one.
+fn with_reader<T>(delimiter: u8, input: Box<dyn Read>, f: impl FnOnce(&mut CsvReader) -> T) -> T {
+    let cached = READERS.with(|r| {
+        let mut r = r.borrow_mut();
+        let i = r.iter().position(|(d, _)| *d == delimiter)?;
+        Some(r.swap_remove(i).1)
+    });
+    let rewound = cached.and_then(|mut reader| {
+        reader
+            .seek_raw(SeekFrom::Start(0), csv::Position::new())
+            .ok()?;
+        Some(reader)
+    });
+    let mut reader = match rewound {
+        Some(mut reader) => {
+            *reader.get_mut() = Source(input);
+            reader
+        }
+        None => csv::ReaderBuilder::new()
+            .has_headers(false)
+            .flexible(true)
+            .delimiter(delimiter)
+            .comment(Some(b'#'))
+            .buffer_capacity(READ_BUFFER)
+            .from_reader(Source(input)),
+    };
+    let out = f(&mut reader);
+    // Let go of the file now; keep the reader.
+    *reader.get_mut() = Source(Box::new(std::io::empty()));
+    READERS.with(|r| r.borrow_mut().push((delimiter, reader)));
+    out
+}
+
 /// Reads one survey file from `input`, handing each reading to `sink` as soon as its
 /// row is parsed, with `file_index` as its origin. Point ids get their keys from
 /// `points` (one interner per tank). Returns what was found.
-pub fn read_survey<R: Read>(
+pub fn read_survey<R: Read + 'static>(
     path: &str,
     input: R,
     file_index: u32,
@@ -201,16 +266,24 @@ pub fn read_survey<R: Read>(
     let (prefix, rest) =
         sniff(input).map_err(|e| InputError::new(Location::file(path), InputErrorKind::Io(e)))?;
     let delimiter = detect_delimiter(&prefix);
-    let mut reader = csv::ReaderBuilder::new()
-        .has_headers(false)
-        .flexible(true)
-        .delimiter(delimiter)
-        .comment(Some(b'#'))
-        .buffer_capacity(READ_BUFFER)
-        .from_reader(std::io::Cursor::new(prefix).chain(rest));
+    let input = Box::new(std::io::Cursor::new(prefix).chain(rest));
+    with_reader(delimiter, input, |reader| {
+        read_rows(path, reader, delimiter, file_index, ctx, points, sink)
+    })
+}
+
+fn read_rows(
+    path: &str,
+    reader: &mut CsvReader,
+    delimiter: u8,
+    file_index: u32,
+    ctx: &SurveyContext,
+    points: &mut PointNames,
+    sink: &mut impl ReadingSink,
+) -> Result<SurveyFileInfo, InputError> {
     let mut record = csv::ByteRecord::new();
     let at = |line: u64| Location::line(path, line);
-    let read = |reader: &mut csv::Reader<_>, record: &mut csv::ByteRecord| {
+    let read = |reader: &mut CsvReader, record: &mut csv::ByteRecord| {
         reader.read_byte_record(record).map_err(|e| {
             let line = e.position().map_or(1, |p| p.line());
             InputError::new(
@@ -219,7 +292,7 @@ pub fn read_survey<R: Read>(
             )
         })
     };
-    if !read(&mut reader, &mut record)? {
+    if !read(reader, &mut record)? {
         return Err(InputError::new(
             Location::file(path),
             InputErrorKind::EmptyFile,
@@ -235,7 +308,7 @@ pub fn read_survey<R: Read>(
         date_cache: None,
     };
     let mut rows = 0usize;
-    while read(&mut reader, &mut record)? {
+    while read(reader, &mut record)? {
         let line = record.position().map_or(0, csv::Position::line);
         if record.len() == 1 && field(&record, 0).is_empty() {
             continue;

@@ -134,15 +134,16 @@ pub struct SurveysRead {
 }
 
 /// Reads every survey file of the tank folder `dir` (sorted by name), handing each
-/// reading to `sink` as its row is parsed. `today` bounds the survey dates.
+/// reading to `sink` as its row is parsed. Point ids are keyed by `points`; `today`
+/// bounds the survey dates.
 pub fn stream_surveys(
     dir: &Path,
     tank: &Tank,
     today: NaiveDate,
+    points: &mut PointNames,
     sink: &mut impl ReadingSink,
 ) -> Result<SurveysRead, InputError> {
     let ctx = context_of(tank, today);
-    let mut points = PointNames::default();
     let mut filter = RepeatFilter::new(tank.units, sink);
     let mut infos = Vec::new();
     for (i, path) in survey_files(dir)?.iter().enumerate() {
@@ -150,14 +151,10 @@ pub fn stream_surveys(
         let file = std::fs::File::open(path)
             .map_err(|e| InputError::new(Location::file(shown.clone()), InputErrorKind::Io(e)))?;
         filter.files.push(shown.clone());
-        infos.push(read_survey(
-            &shown,
-            file,
-            i as u32,
-            &ctx,
-            &mut points,
-            &mut filter,
-        )?);
+        let info = read_survey(&shown, file, i as u32, &ctx, points, &mut filter)?;
+        // The next file likely has as many rows: room for its repeat check at once.
+        filter.first.reserve(info.rows);
+        infos.push(info);
     }
     let (files, remarks) = filter.finish()?;
     Ok(SurveysRead {
@@ -172,7 +169,8 @@ pub fn stream_surveys(
 pub fn load_tank_dir(dir: &Path, today: NaiveDate) -> Result<TankFolder, InputError> {
     let tank = load_tank_file(dir)?;
     let mut readings = Vec::new();
-    let read = stream_surveys(dir, &tank, today, &mut readings)?;
+    let mut points = PointNames::default();
+    let read = stream_surveys(dir, &tank, today, &mut points, &mut readings)?;
     Ok(TankFolder {
         dir: dir.display().to_string(),
         tank,

@@ -151,7 +151,9 @@ impl ReadingSink for Vec<Reading> {
 #[derive(Debug, Clone, Default)]
 pub struct PointNames {
     keys: rustc_hash::FxHashMap<Box<str>, u32>,
-    names: Vec<Box<str>>,
+    /// Every id, one after the other; `ends[k]` is where id `k` ends.
+    text: String,
+    ends: Vec<usize>,
     previous: Option<u32>,
 }
 
@@ -159,13 +161,14 @@ impl PointNames {
     /// The key of `id`, assigning the next one on first sight.
     pub fn key(&mut self, id: &str) -> PointKey {
         let guess = self.previous.map_or(0, |p| p + 1);
-        let key = match self.names.get(guess as usize) {
-            Some(name) if **name == *id => guess,
+        let key = match self.name(PointKey(guess)) {
+            Some(name) if name == id => guess,
             _ => match self.keys.get(id) {
                 Some(&k) => k,
                 None => {
-                    let k = self.names.len() as u32;
-                    self.names.push(Box::from(id));
+                    let k = self.ends.len() as u32;
+                    self.text.push_str(id);
+                    self.ends.push(self.text.len());
                     self.keys.insert(Box::from(id), k);
                     k
                 }
@@ -176,15 +179,18 @@ impl PointNames {
     }
     /// The text of a key given out by this interner.
     pub fn name(&self, key: PointKey) -> Option<&str> {
-        self.names.get(key.0 as usize).map(|n| &**n)
+        let k = key.0 as usize;
+        let end = *self.ends.get(k)?;
+        let start = if k == 0 { 0 } else { self.ends[k - 1] };
+        self.text.get(start..end)
     }
     /// Number of distinct ids seen.
     pub fn len(&self) -> usize {
-        self.names.len()
+        self.ends.len()
     }
     /// True when no id has been seen.
     pub fn is_empty(&self) -> bool {
-        self.names.is_empty()
+        self.ends.is_empty()
     }
 }
 
