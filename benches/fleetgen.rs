@@ -110,8 +110,8 @@ fn write_tank(args: &Args, t: usize) -> Result<usize, Box<dyn std::error::Error>
     for c in 0..n_courses {
         let h = fill - c as f64 * course_h;
         // One-foot design thickness (API 650 5.6.3.2, SI form) with S_d = 2/3 Y,
-        // plus 1.5 mm corrosion allowance, at least 5 mm, rounded up to 0.5 mm.
-        let design = 4.9 * diameter * (h - 0.3).max(0.0) * sg / (2.0 / 3.0 * y_mpa) + 1.5;
+        // plus 3 mm corrosion allowance, at least 5 mm, rounded up to 0.5 mm.
+        let design = 4.9 * diameter * (h - 0.3).max(0.0) * sg / (2.0 / 3.0 * y_mpa) + 3.0;
         let nominal = ((design.max(5.0)) / 0.5).ceil() * 0.5;
         nominal_mm.push(nominal);
         courses.push(if usc {
@@ -163,7 +163,7 @@ fn write_tank(args: &Args, t: usize) -> Result<usize, Box<dyn std::error::Error>
     let per_course = args.readings.div_ceil(n_courses);
     let course_rate: Vec<f64> = (0..n_courses)
         .map(|c| {
-            let base = 0.01 + rng.f64() * 0.06;
+            let base = 0.003 + rng.f64() * 0.02;
             if c == 0 || c + 1 == n_courses {
                 base * 1.8
             } else {
@@ -179,7 +179,7 @@ fn write_tank(args: &Args, t: usize) -> Result<usize, Box<dyn std::error::Error>
             let drop = k % drops;
             let level = k / drops;
             let levels = per_course.div_ceil(drops);
-            let fast = rng.f64() < 0.02;
+            let fast = rng.f64() < 0.01;
             Point {
                 id: format!("D{}-C{}-{}", drop + 1, course + 1, level + 1),
                 course,
@@ -188,10 +188,10 @@ fn write_tank(args: &Args, t: usize) -> Result<usize, Box<dyn std::error::Error>
                     2,
                 ),
                 azimuth: drop as f64 * 45.0,
-                initial_mm: nominal_mm[course] + 0.2 + noise(&mut rng, 0.15),
+                initial_mm: nominal_mm[course] + 0.1 + noise(&mut rng, 0.08),
                 rate_mm_y: course_rate[course]
                     * (0.6 + rng.f64() * 0.8)
-                    * if fast { 3.0 } else { 1.0 },
+                    * if fast { 1.6 } else { 1.0 },
             }
         })
         .collect();

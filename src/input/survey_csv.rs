@@ -155,6 +155,43 @@ pub fn detect_delimiter(bytes: &[u8]) -> u8 {
     }
 }
 
+/// Exact powers of ten as f64 (every one up to 1e22 is representable).
+const POW10: [f64; 23] = [
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
+    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
+
+/// A plain decimal (`-?digits[.digits]`, at most 15 digits) read without the general
+/// parser: the digits as an integer m (exact, m < 2^53) divided by 10^k (exact,
+/// k <= 22) is one correctly rounded IEEE division, which is the fast path of
+/// Clinger's algorithm that Rust's own parser takes for such text: the same bits
+/// (checked against `str::parse` in the tests below). None for any other text.
+fn plain_decimal(b: &[u8]) -> Option<f64> {
+    let (negative, digits) = match b.split_first() {
+        Some((b'-', rest)) => (true, rest),
+        _ => (false, b),
+    };
+    let mut mantissa: u64 = 0;
+    let mut count = 0usize;
+    let mut fraction: Option<usize> = None;
+    for (i, &c) in digits.iter().enumerate() {
+        match c {
+            b'0'..=b'9' if count < 15 => {
+                mantissa = mantissa * 10 + u64::from(c - b'0');
+                count += 1;
+            }
+            b'.' if fraction.is_none() => fraction = Some(i),
+            _ => return None,
+        }
+    }
+    if count == 0 {
+        return None;
+    }
+    let k = fraction.map_or(0, |i| digits.len() - i - 1);
+    let v = mantissa as f64 / POW10[k];
+    Some(if negative { -v } else { v })
+}
+
 /// Bytes the reader asks the file for at a time.
 const READ_BUFFER: usize = 64 * 1024;
 
@@ -523,12 +560,9 @@ impl RowParser<'_> {
         if raw.is_empty() {
             return Ok(None);
         }
-        // Fast path: what fast-float2 reads to a finite number, Rust's own parser reads
-        // to the same bits (see the test `fast_numbers_are_std_numbers`); anything else
-        // (decimal comma, errors) takes the path below with its messages.
-        if let Ok(v) = fast_float2::parse::<f64, _>(raw)
-            && v.is_finite()
-        {
+        // Fast path for plain decimals; anything else (exponents, decimal comma,
+        // errors) takes the path below with its messages.
+        if let Some(v) = plain_decimal(raw) {
             return Ok(Some(v));
         }
         let expected = expected();
@@ -830,13 +864,11 @@ fn convert_length(v: f64, suffix: Suffix, units: Option<UnitSystem>) -> Length {
 mod tests {
     use proptest::prelude::*;
 
-    /// Reference: Rust's own `f64::from_str`. Whatever fast-float2 reads to a finite
-    /// number, the standard parser reads to the same bits, so taking the fast path
-    /// changes no value and no message.
+    /// Reference: Rust's own `f64::from_str`. Whatever the fast path reads, the
+    /// standard parser reads to the same bits, so taking it changes no value and no
+    /// message.
     fn agrees(text: &str) {
-        if let Ok(v) = fast_float2::parse::<f64, _>(text.as_bytes())
-            && v.is_finite()
-        {
+        if let Some(v) = super::plain_decimal(text.as_bytes()) {
             let std: f64 = text
                 .parse()
                 .unwrap_or_else(|_| panic!("fast-float read {text:?}, std refuses it"));
@@ -882,6 +914,11 @@ mod tests {
     proptest! {
         #[test]
         fn fast_numbers_are_std_numbers(text in "[-+]?[0-9]{0,20}(\\.[0-9]{0,20})?([eE][-+]?[0-9]{1,3})?") {
+            agrees(&text);
+        }
+
+        #[test]
+        fn fast_numbers_are_std_numbers_on_plain_decimals(text in "-?[0-9]{0,9}\\.?[0-9]{0,9}") {
             agrees(&text);
         }
 
