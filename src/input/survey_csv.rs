@@ -608,19 +608,27 @@ impl RowParser<'_> {
 
         // course
         let ci = cols.course;
-        let course_text = self.text(record, ci, line)?;
-        if course_text.is_empty() {
-            return Err(self.empty(line, ci, "a course number (1 = bottom course)".into()));
-        }
-        let course: u32 = course_text.parse().map_err(|_| {
-            self.bad(
-                line,
-                ci,
-                course_text,
-                "a course number",
-                "a whole number, 1 = bottom course".into(),
-            )
-        })?;
+        // One or two digits without a leading zero read at once; anything else through
+        // `str::parse` and its messages.
+        let course: u32 = match field(record, ci) {
+            [d @ b'1'..=b'9'] => u32::from(d - b'0'),
+            [a @ b'1'..=b'9', b @ b'0'..=b'9'] => u32::from(a - b'0') * 10 + u32::from(b - b'0'),
+            _ => {
+                let course_text = self.text(record, ci, line)?;
+                if course_text.is_empty() {
+                    return Err(self.empty(line, ci, "a course number (1 = bottom course)".into()));
+                }
+                course_text.parse().map_err(|_| {
+                    self.bad(
+                        line,
+                        ci,
+                        course_text,
+                        "a course number",
+                        "a whole number, 1 = bottom course".into(),
+                    )
+                })?
+            }
+        };
         let n_courses = ctx.nominal.len() as u32;
         if course == 0 || (n_courses > 0 && course > n_courses) {
             let problem = if n_courses > 0 {
@@ -736,8 +744,8 @@ impl RowParser<'_> {
             None => None,
         };
         let note = match cols.note {
-            Some(i) => Some(self.text(record, i, line)?).filter(|s| !s.is_empty()),
-            None => None,
+            Some(i) if !field(record, i).is_empty() => Some(self.text(record, i, line)?),
+            _ => None,
         };
         Ok(ReadingRef {
             date,

@@ -146,14 +146,17 @@ pub fn stream_surveys(
     let ctx = context_of(tank, today);
     let mut filter = RepeatFilter::new(tank.units, sink);
     let mut infos = Vec::new();
-    for (i, path) in survey_files(dir)?.iter().enumerate() {
+    let paths = survey_files(dir)?;
+    for (i, path) in paths.iter().enumerate() {
         let shown = path.display().to_string();
         let file = std::fs::File::open(path)
             .map_err(|e| InputError::new(Location::file(shown.clone()), InputErrorKind::Io(e)))?;
         filter.files.push(shown.clone());
         let info = read_survey(&shown, file, i as u32, &ctx, points, &mut filter)?;
-        // The next file likely has as many rows: room for its repeat check at once.
-        filter.first.reserve(info.rows);
+        // The other files likely have as many rows: room for their repeat check at once.
+        if i == 0 {
+            filter.first.reserve(info.rows * (paths.len() - 1));
+        }
         infos.push(info);
     }
     let (files, remarks) = filter.finish()?;
