@@ -26,7 +26,7 @@ exe() {
     python3 -c 'import json,sys
 for line in sys.stdin:
     m = json.loads(line)
-    if m.get("executable"): print(m["executable"])'
+    if m.get("executable") and "bench" in m["target"]["kind"]: print(m["executable"])'
 }
 GEN=$(exe fleetgen)
 FLOOR=$(exe csv_floor)
@@ -48,7 +48,7 @@ for size in 4m 16m; do
   dir="$WORK/fleet-$size"
   rows=$(find "$dir" -name '*.csv' -exec cat {} + | wc -l)
   mb=$(du -sm "$dir" | cut -f1)
-  cat $(find "$dir" -name '*.csv') > /dev/null # warm the page cache
+  find "$dir" -name '*.csv' -exec cat {} + > /dev/null # warm the page cache
   : > "$WORK/floor.txt"
   : > "$WORK/strake.txt"
   for _ in $(seq "$RUNS"); do
