@@ -104,7 +104,21 @@ fn write_tank(args: &Args, t: usize) -> Result<usize, Box<dyn std::error::Error>
     let fill = dec(shell - 0.3 - rng.f64() * 0.9, 1);
     let sg = dec(0.7 + rng.f64() * 0.3, 2);
     let (y_mpa, t_mpa) = [(250.0, 400.0), (260.0, 450.0), (290.0, 485.0)][rng.usize(0..3)];
-    let in_service = 1965 + rng.i32(0..30);
+    // Survey dates: the last between 2020 and 2025, earlier ones 2 to 5 years apart
+    // (1 to 2 with more than 8 surveys); in service 2 to 21 years before the first.
+    let mut survey_years = Vec::new();
+    let mut y = 2020 + rng.i32(0..6);
+    let (m, d) = (1 + rng.u32(0..12), 1 + rng.u32(0..28));
+    for _ in 0..args.surveys {
+        survey_years.push(y);
+        y -= if args.surveys > 8 {
+            1 + rng.i32(0..2)
+        } else {
+            2 + rng.i32(0..4)
+        };
+    }
+    survey_years.reverse();
+    let in_service = survey_years[0] - 2 - rng.i32(0..20);
     let mut courses = Vec::new();
     let mut nominal_mm = Vec::new();
     for c in 0..n_courses {
@@ -196,15 +210,10 @@ fn write_tank(args: &Args, t: usize) -> Result<usize, Box<dyn std::error::Error>
         })
         .collect();
 
-    // Survey dates: the last between 2020 and 2026, earlier ones 2 to 5 years apart.
-    let mut dates = Vec::new();
-    let mut y = 2020 + rng.i32(0..6);
-    let (m, d) = (1 + rng.u32(0..12), 1 + rng.u32(0..28));
-    for _ in 0..args.surveys {
-        dates.push(chrono::NaiveDate::from_ymd_opt(y, m, d).ok_or("date")?);
-        y -= 2 + rng.i32(0..4);
-    }
-    dates.reverse();
+    let dates = survey_years
+        .iter()
+        .map(|&y| chrono::NaiveDate::from_ymd_opt(y, m, d).ok_or("date"))
+        .collect::<Result<Vec<_>, _>>()?;
     let mut rows = 0;
     for date in &dates {
         let years = (*date - chrono::NaiveDate::from_ymd_opt(in_service, 1, 1).ok_or("date")?)

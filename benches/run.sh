@@ -37,7 +37,10 @@ STRAKE=target/release/strake
 
 # One measurement: prints "wall_s cpu_s peak_kb".
 measure() {
-  /usr/bin/time -f "%e %U %S %M" -o "$WORK/time.txt" "$@" > /dev/null
+  /usr/bin/time -f "%e %U %S %M" -o "$WORK/time.txt" "$@" > /dev/null 2> "$WORK/stderr.txt" || {
+    echo "failed: $* ($(head -c 300 "$WORK/stderr.txt"))" >&2
+    exit 1
+  }
   awk '{ printf "%s %.2f %s\n", $1, $2 + $3, $4 }' "$WORK/time.txt"
 }
 median() { sort -n | awk '{ a[NR] = $1 } END { print a[int((NR + 1) / 2)] }'; }

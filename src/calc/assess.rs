@@ -44,6 +44,9 @@ pub struct AssessOptions {
     pub specific_gravity: Option<f64>,
     /// Maximum liquid level instead of the tank file's.
     pub fill_height: Option<Length>,
+    /// Leave out the per-point results (`points`, `hot_spots` stay empty): for callers
+    /// that show none of them, such as the fleet table. Every other value is the same.
+    pub skip_points: bool,
 }
 
 /// Why a tank cannot be assessed at all.
@@ -286,7 +289,7 @@ pub fn assess_tally(
             .collect(),
     };
 
-    // 4. Points.
+    // 4. Points (unless the caller shows none).
     let name = |k: crate::model::reading::PointKey| names.name(k).unwrap_or("");
     let mut spans: Vec<_> = tally.points().iter().map(|(k, p)| (name(*k), p)).collect();
     // (course, id) is unique: an unstable sort gives the one order.

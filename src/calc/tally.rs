@@ -162,7 +162,7 @@ impl ReadingSink for Tally {
             return;
         }
         self.group(r.course, r.date).push(r.thickness.0);
-        if let Some(p) = r.point {
+        if let Some(p) = r.point.filter(|_| !self.options.skip_points) {
             let slot = p.key.0 as usize;
             if self.span_of_key.len() <= slot {
                 self.span_of_key.resize(slot + 1, NONE);

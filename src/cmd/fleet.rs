@@ -85,7 +85,12 @@ fn assess_entry(dir: &Path, today: NaiveDate) -> FleetEntry {
             };
         }
     };
-    match assess_tank(dir, &tank, today, AssessOptions::default()) {
+    // The fleet line shows no point; a report of the tank (`--out`) would need them.
+    let options = AssessOptions {
+        skip_points: true,
+        ..AssessOptions::default()
+    };
+    match assess_tank(dir, &tank, today, options) {
         Ok(a) => FleetEntry::Tank(Box::new(fleet_tank(folder, &a))),
         Err(e) => FleetEntry::Failed {
             folder,

@@ -68,6 +68,7 @@ pub fn load_and_assess(
         as_of: args.as_of,
         specific_gravity,
         fill_height: fill_height.map(Length),
+        skip_points: false,
     };
     assess_dir(&args.dir, today(), options)
 }
