@@ -71,12 +71,12 @@ done
 
 echo "pandas on fleet 4m (once):"
 "$STRAKE" fleet "$WORK/fleet-4m" --format csv > "$WORK/strake-4m.csv" || true
-/usr/bin/time -f "%e %U %S %M" -o "$WORK/time.txt" \
+/usr/bin/time -f "%e %U %S %M" -o "$WORK/pandas-time.txt" \
   python3 benches/fleet_pandas.py "$WORK/fleet-4m" > "$WORK/pandas-4m.csv"
-pw=$(cut -d' ' -f1 "$WORK/time.txt")
+pw=$(cut -d' ' -f1 "$WORK/pandas-time.txt")
 sw4=$(for _ in 1 2 3; do measure "$STRAKE" fleet "$WORK/fleet-4m" --format csv; done |
   cut -d' ' -f1 | median)
-echo "  pandas: wall $pw s, peak $(( $(cut -d' ' -f4 "$WORK/time.txt") / 1024 )) MB; strake: wall $sw4 s"
+echo "  pandas: wall $pw s, peak $(( $(cut -d' ' -f4 "$WORK/pandas-time.txt") / 1024 )) MB; strake: wall $sw4 s"
 awk -v p="$pw" -v s="$sw4" 'BEGIN { printf "  strake is %.0fx faster\n", p / s }'
 python3 benches/fleet_pandas.py --compare "$WORK/pandas-4m.csv" "$WORK/strake-4m.csv" | sed 's/^/  /'
 echo "load average after: $(cut -d' ' -f1-3 /proc/loadavg)"
