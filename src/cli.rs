@@ -45,7 +45,7 @@ pub enum ColorArg {
 #[command(
     name = "strake",
     version,
-    after_help = "Examples:\n  strake check sample-inspections/*\n  strake assess sample-inspections/kestrel-t12\n  strake fill-height sample-inspections/kestrel-t12 --sg 1.0 --years 10\n\nExit codes: 0 done, 1 bad input, 2 usage, 3 a course below t_min (with --fail-below-minimum).\nEvery result is a screening aid: it defers to the applicable code edition, local\nregulations and an authorized inspector's or qualified engineer's judgement."
+    after_help = "Examples:\n  strake check sample-inspections/*\n  strake assess sample-inspections/kestrel-t12\n  strake fill-height sample-inspections/kestrel-t12 --sg 1.0 --years 10\n  strake fleet sample-inspections\n\nExit codes: 0 done, 1 bad input, 2 usage, 3 a course below t_min (with --fail-below-minimum).\nEvery result is a screening aid: it defers to the applicable code edition, local\nregulations and an authorized inspector's or qualified engineer's judgement."
 )]
 pub struct Cli {
     /// What to do.
@@ -90,6 +90,20 @@ pub enum Command {
         after_help = "Examples:\n  strake required sample-inspections/kestrel-t12\n  strake required --diameter 80 --fill-height 19.2 --sg 0.9 --course-heights 2.4,2.4,2.4,2.4,2.4,2.4,2.4,2.4 --material A516-70 --corrosion-allowance 1.5"
     )]
     Required(RequiredArgs),
+    /// Assess every tank folder below a folder, in parallel, and list them by next due
+    /// date: governing course, remaining life, due dates, allowable fill height, status.
+    #[command(
+        after_help = "Examples:\n  strake fleet sample-inspections\n  strake fleet sample-inspections --format csv > plan.csv\n\nA folder that cannot be assessed is listed with its error and the others go on;\nthe exit code is then 1."
+    )]
+    Fleet(FleetArgs),
+}
+
+/// `strake fleet`.
+#[derive(Debug, Args)]
+pub struct FleetArgs {
+    /// The folder to search: every folder below it that holds a tank.toml is a tank.
+    #[arg(value_name = "DIR")]
+    pub dir: PathBuf,
 }
 
 /// `strake check`.

@@ -21,7 +21,8 @@ pub enum Outcome {
     Done,
     /// `--fail-below-minimum` and a course is below t_min: exit 3.
     BelowMinimum,
-    /// Some inputs had errors, already reported in the output (`check`): exit 1.
+    /// Some inputs had errors, already reported in the output (`check`, `fleet`):
+    /// exit 1.
     InputErrors,
 }
 
@@ -83,5 +84,6 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::Assess(a) => cmd::assess::run(a, g),
         Command::FillHeight(a) => cmd::fill_height::run(a, g),
         Command::Required(a) => cmd::required::run(a, g),
+        Command::Fleet(a) => cmd::fleet::run(a, g),
     }
 }

@@ -2,7 +2,8 @@
 //! each course, then the tank-level verdict.
 //!
 //! Order of work (each step is a function of the modules beside this one):
-//! 1. group readings by course and survey date, reduce each group (survey.rs);
+//! 1. group readings by course and survey date, reduce each group (survey.rs); this
+//!    is done while the readings stream past (tally.rs), so that no reading is kept;
 //! 2. per course: S (stress.rs), t_min and H_max (shell.rs), rates (rates.rs),
 //!    remaining life, status and intervals (life.rs);
 //! 3. tank: the least UT and external intervals over courses with a known rate
@@ -22,22 +23,24 @@ use chrono::NaiveDate;
 
 use super::area::{AreaAssessment, FutureLoss, assess_area};
 use super::constants::COV_UNIFORM_LIMIT;
-use super::extreme::{DropReading, extreme_value};
+use super::extreme::extreme_value;
 use super::life::{
     IntervalBasis, IntervalKind, RemainingLife, add_years, interval, remaining_life, status,
 };
-use super::points::{PointHistory, hot_spots, point_result};
+use super::points::{hot_spots, point_result_of};
 use super::rates::{BasisPoint, governing_rate, long_term, regression, short_term};
 use super::shell::{CourseLoad, max_fill_height, whole_course_t_min};
 use super::stress::in_service_stress;
-use super::survey::{CourseSurvey, course_survey, suspect_reading};
+use super::survey::{CourseSurvey, course_survey_of};
+use super::tally::Tally;
 use super::units::{Length, Thickness};
 use crate::calc::life::Status;
-use crate::model::reading::ReadingSet;
+use crate::model::reading::{PointNames, ReadingSet, ReadingSink};
 use crate::model::result::{
     Assessment, CourseCondition, CourseResult, FillLimit, Overrides, SurveyInfo, TankInterval,
     TankSummary,
 };
+use crate::model::scan::Scan;
 use crate::model::tank::{Construction, Material, RateBasis, Tank};
 use crate::model::warning::{Shown, Warning};
 
@@ -50,6 +53,9 @@ pub struct AssessOptions {
     pub specific_gravity: Option<f64>,
     /// Maximum liquid level instead of the tank file's.
     pub fill_height: Option<Length>,
+    /// Leave out the per-point results (`points`, `hot_spots` stay empty): for callers
+    /// that show none of them, such as the fleet table. Every other value is the same.
+    pub skip_points: bool,
 }
 
 /// Why a tank cannot be assessed at all.
@@ -68,12 +74,32 @@ pub enum AssessError {
     },
 }
 
-/// Assesses `tank` from `readings`.
+/// Assesses `tank` from `readings` (kept in memory; see [`assess_tally`] for readings
+/// gathered while they stream past).
 pub fn assess(
     tank: &Tank,
     readings: &ReadingSet,
     options: AssessOptions,
 ) -> Result<Assessment, AssessError> {
+    let mut tally = Tally::new(tank, options);
+    let mut names = PointNames::default();
+    for r in &readings.readings {
+        tally.accept(&r.borrow(&mut names));
+    }
+    assess_tally(tank, &tally, &names, &readings.files, &readings.scans)
+}
+
+/// Assesses `tank` from the tally of its readings; `names` holds the point ids the
+/// tally's keys stand for, `files` the files the readings came from (index =
+/// `Origin::file`), for the warnings; `all_scans` the tank's grid scans.
+pub fn assess_tally(
+    tank: &Tank,
+    tally: &Tally,
+    names: &PointNames,
+    files: &[String],
+    all_scans: &[Scan],
+) -> Result<Assessment, AssessError> {
+    let options = tally.options;
     let mut tank = tank.clone();
     let mut overrides = Overrides::default();
     if let Some(g) = options.specific_gravity {
@@ -87,15 +113,12 @@ pub fn assess(
     let units = tank.units;
     let mut warnings = Vec::new();
 
-    // 1. Readings up to the as-of date, grouped by course and date.
-    let earliest = readings.readings.iter().map(|r| r.date).min();
-    let used: Vec<_> = readings
-        .readings
-        .iter()
-        .filter(|r| options.as_of.is_none_or(|d| r.date <= d))
-        .collect();
-    let excluded = readings.readings.len() - used.len();
-    let latest_survey = match (used.iter().map(|r| r.date).max(), options.as_of, earliest) {
+    // 1. Readings up to the as-of date, grouped by course and date (tally.rs).
+    let latest_survey = match (
+        tally.groups().map(|g| g.date).max(),
+        options.as_of,
+        tally.earliest,
+    ) {
         (Some(d), _, _) => d,
         (None, Some(as_of), Some(earliest)) => {
             return Err(AssessError::NoneBeforeAsOf { as_of, earliest });
@@ -103,56 +126,28 @@ pub fn assess(
         _ => return Err(AssessError::NoReadings),
     };
     let as_of = options.as_of.unwrap_or(latest_survey);
-    if excluded > 0 {
+    if tally.excluded > 0 {
         warnings.push(Warning::ReadingsAfterAsOf {
-            count: excluded,
+            count: tally.excluded,
             as_of,
         });
     }
-    let mut by_course_date: BTreeMap<(u32, NaiveDate), Vec<f64>> = BTreeMap::new();
-    let mut drops: BTreeMap<(u32, NaiveDate), Vec<DropReading>> = BTreeMap::new();
-    let mut by_point: BTreeMap<(u32, &str), PointHistory> = BTreeMap::new();
+    let locate = |origin: crate::model::reading::Origin| {
+        let file = files.get(origin.file as usize).map_or("?", String::as_str);
+        format!("{file}:{}", origin.line)
+    };
+    for s in &tally.suspects {
+        warnings.push(Warning::SuspectReading {
+            location: locate(s.origin),
+            course: s.course,
+            thickness: Shown::thickness(s.thickness, units),
+            nominal: Shown::thickness(s.nominal, units),
+            kind: s.kind,
+        });
+    }
     let mut per_date: BTreeMap<NaiveDate, usize> = BTreeMap::new();
-    for r in &used {
-        by_course_date
-            .entry((r.course, r.date))
-            .or_default()
-            .push(r.thickness.0);
-        drops
-            .entry((r.course, r.date))
-            .or_default()
-            .push(DropReading {
-                azimuth: r.azimuth,
-                thickness: r.thickness,
-            });
-        *per_date.entry(r.date).or_default() += 1;
-        if let Some(id) = r.point.as_deref() {
-            let h = by_point
-                .entry((r.course, id))
-                .or_insert_with(|| PointHistory {
-                    point: id.to_string(),
-                    course: r.course,
-                    readings: Vec::new(),
-                    elevation: None,
-                    azimuth: None,
-                });
-            h.readings.push((r.date, r.thickness));
-            if h.readings.iter().all(|(d, _)| *d <= r.date) {
-                h.elevation = r.elevation.or(h.elevation);
-                h.azimuth = r.azimuth.or(h.azimuth);
-            }
-        }
-        if let Some(course) = tank.course(r.course)
-            && let Some(kind) = suspect_reading(r.thickness, course.nominal_thickness)
-        {
-            warnings.push(Warning::SuspectReading {
-                location: readings.locate(r.origin),
-                course: r.course,
-                thickness: Shown::thickness(r.thickness, units),
-                nominal: Shown::thickness(course.nominal_thickness, units),
-                kind,
-            });
-        }
+    for g in tally.groups() {
+        *per_date.entry(g.date).or_default() += g.stats.count();
     }
     let surveys = per_date
         .iter()
@@ -160,12 +155,11 @@ pub fn assess(
         .collect();
 
     // Scans up to the as-of date (all of them without --as-of).
-    let scans: Vec<_> = readings
-        .scans
+    let scans: Vec<_> = all_scans
         .iter()
         .filter(|s| options.as_of.is_none_or(|d| s.date <= d))
         .collect();
-    let late_scans = readings.scans.len() - scans.len();
+    let late_scans = all_scans.len() - scans.len();
     if late_scans > 0 {
         warnings.push(Warning::ScansAfterAsOf {
             count: late_scans,
@@ -189,9 +183,9 @@ pub fn assess(
             bottom_elevation: course.bottom_elevation,
         };
         let t_min = whole_course_t_min(load, tank.max_fill_height);
-        let history: Vec<CourseSurvey> = by_course_date
-            .range((course.number, NaiveDate::MIN)..=(course.number, NaiveDate::MAX))
-            .filter_map(|((_, date), values)| course_survey(*date, values, tank.thickness_basis))
+        let history: Vec<CourseSurvey> = tally
+            .course_groups(course.number)
+            .filter_map(|g| course_survey_of(g.date, &g.stats, tank.thickness_basis))
             .collect();
         let condition = history.last().copied().map(|latest| {
             let basis: Vec<BasisPoint> = history
@@ -238,10 +232,11 @@ pub fn assess(
             &t_min,
             &mut warnings,
         );
+        let no_drops = super::extreme::Drops::default();
         let latest_drops = condition
             .as_ref()
-            .and_then(|k| drops.get(&(course.number, k.latest.date)))
-            .map_or(&[][..], Vec::as_slice);
+            .and_then(|k| tally.drops(course.number, k.latest.date))
+            .unwrap_or(&no_drops);
         let extreme = extreme_value(
             units,
             tank.diameter,
@@ -414,13 +409,16 @@ pub fn assess(
         max_fill_height_next_area: max_fill_next_area,
     };
 
-    // 4. Points.
-    let points: Vec<_> = by_point
-        .values_mut()
-        .filter_map(|h| {
-            h.readings.sort_by_key(|(d, _)| *d);
-            let t_min = courses.iter().find(|c| c.number == h.course)?.t_min.value;
-            point_result(h, t_min)
+    // 4. Points (unless the caller shows none).
+    let name = |k: crate::model::reading::PointKey| names.name(k).unwrap_or("");
+    let mut spans: Vec<_> = tally.points().iter().map(|(k, p)| (name(*k), p)).collect();
+    // (course, id) is unique: an unstable sort gives the one order.
+    spans.sort_unstable_by(|a, b| (a.1.course, a.0).cmp(&(b.1.course, b.0)));
+    let points: Vec<_> = spans
+        .into_iter()
+        .filter_map(|(id, p)| {
+            let t_min = courses.iter().find(|c| c.number == p.course)?.t_min.value;
+            Some(point_result_of(id.to_string(), p, t_min))
         })
         .collect();
     let hot = hot_spots(&points);

@@ -184,13 +184,43 @@ pub fn plot_correlation(points: &[PlotPoint]) -> Option<f64> {
     Some(x.iter().covariance(y.iter()) / (sx * sy))
 }
 
-/// A reading as the block rule needs it.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct DropReading {
-    /// Degrees clockwise from the tank's 0 mark, when given.
-    pub azimuth: Option<f64>,
-    /// The reading.
-    pub thickness: Thickness,
+/// The readings of one course at one survey, grouped by drop (azimuth) while they
+/// stream past: per azimuth the count and the least reading; readings without an
+/// azimuth are only counted. Memory grows with the number of drops, not readings.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Drops {
+    /// Azimuth bits (0 to 360 degrees, 360 folded to 0) -> (readings, least).
+    by_azimuth: std::collections::BTreeMap<u64, (usize, f64)>,
+    /// Readings without an azimuth.
+    without: usize,
+}
+
+impl Drops {
+    /// Adds one reading.
+    pub fn push(&mut self, azimuth: Option<f64>, thickness: Thickness) {
+        match azimuth {
+            None => self.without += 1,
+            Some(a) => {
+                // Non-negative finite degrees: their bit patterns sort as the numbers do;
+                // + 0.0 turns -0.0 into 0.0.
+                let a = if a >= 360.0 { a - 360.0 } else { a } + 0.0;
+                let e = self
+                    .by_azimuth
+                    .entry(a.to_bits())
+                    .or_insert((0, f64::INFINITY));
+                e.0 += 1;
+                e.1 = e.1.min(thickness.0);
+            }
+        }
+    }
+    /// Readings added.
+    pub fn len(&self) -> usize {
+        self.without + self.by_azimuth.values().map(|v| v.0).sum::<usize>()
+    }
+    /// No reading added.
+    pub fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
 }
 
 /// One block: the readings of a drop on the course.
@@ -327,43 +357,25 @@ pub fn extreme_value(
     diameter: Length,
     course_height: Length,
     nominal: Thickness,
-    readings: &[DropReading],
+    readings: &Drops,
 ) -> Result<ExtremeValue, NotApplicable> {
     if readings.is_empty() {
         return Err(NotApplicable::NoReadings);
     }
-    let mut with: Vec<(f64, f64)> = readings
-        .iter()
-        .filter_map(|r| {
-            r.azimuth
-                .map(|a| (if a >= 360.0 { a - 360.0 } else { a }, r.thickness.0))
-        })
-        .collect();
-    let without = readings.len() - with.len();
-    if with.is_empty() {
+    let without = readings.without;
+    if readings.by_azimuth.is_empty() {
         return Err(NotApplicable::NoAzimuth);
     }
-    with.sort_by(|a, b| a.0.total_cmp(&b.0));
-    let mut blocks: Vec<Block> = Vec::new();
-    for (azimuth, t) in with {
-        match blocks.last_mut() {
-            Some(b) if b.azimuth == azimuth => {
-                b.readings += 1;
-                if t < b.least.0 {
-                    b.least = Thickness(t);
-                }
-            }
-            _ => blocks.push(Block {
-                azimuth,
-                readings: 1,
-                least: Thickness(t),
-                max_loss: Thickness(0.0),
-            }),
-        }
-    }
-    for b in &mut blocks {
-        b.max_loss = Thickness(nominal.0 - b.least.0);
-    }
+    let blocks: Vec<Block> = readings
+        .by_azimuth
+        .iter()
+        .map(|(&bits, &(count, least))| Block {
+            azimuth: f64::from_bits(bits),
+            readings: count,
+            least: Thickness(least),
+            max_loss: Thickness(nominal.0 - least),
+        })
+        .collect();
     if blocks.len() < EXTREME_MIN_BLOCKS {
         return Err(NotApplicable::TooFewBlocks {
             found: blocks.len(),
@@ -491,11 +503,16 @@ mod tests {
         assert!((plot_correlation(&line).expect("spread") - 1.0).abs() < 1e-12);
     }
 
-    fn r(azimuth: f64, t: f64) -> DropReading {
-        DropReading {
-            azimuth: Some(azimuth),
-            thickness: Thickness(t),
+    fn r(azimuth: f64, t: f64) -> (Option<f64>, f64) {
+        (Some(azimuth), t)
+    }
+
+    fn drops(readings: &[(Option<f64>, f64)]) -> Drops {
+        let mut d = Drops::default();
+        for &(a, t) in readings {
+            d.push(a, Thickness(t));
         }
+        d
     }
 
     /// Four drops of two readings, nominal 10 mm, SI, D 12 m, course 1.8 m high:
@@ -516,10 +533,7 @@ mod tests {
             r(360.0, 9.7),
             r(270.0, 8.5),
             r(270.0, 9.9),
-            DropReading {
-                azimuth: None,
-                thickness: Thickness(5.0),
-            },
+            (None, 5.0),
         ];
         // 360 is the 0 drop: it would make that block 3 readings -> unequal.
         let e = extreme_value(
@@ -527,17 +541,17 @@ mod tests {
             Length(12.0),
             Length(1.8),
             Thickness(10.0),
-            &readings,
+            &drops(&readings),
         );
         assert_eq!(e, Err(NotApplicable::UnequalBlocks { least: 2, most: 3 }));
         let mut equal = readings.to_vec();
-        equal.retain(|d| d.azimuth != Some(360.0));
+        equal.retain(|d| d.0 != Some(360.0));
         let e = extreme_value(
             UnitSystem::Si,
             Length(12.0),
             Length(1.8),
             Thickness(10.0),
-            &equal,
+            &drops(&equal),
         )
         .expect("four equal drops");
         let maxima: Vec<f64> = e.blocks.iter().map(|b| b.max_loss.0).collect();
@@ -559,17 +573,14 @@ mod tests {
 
     #[test]
     fn not_applicable() {
-        let none = [DropReading {
-            azimuth: None,
-            thickness: Thickness(9.0),
-        }];
-        let f = |rs: &[DropReading]| {
+        let none = [(None, 9.0)];
+        let f = |rs: &[(Option<f64>, f64)]| {
             extreme_value(
                 UnitSystem::Si,
                 Length(12.0),
                 Length(1.8),
                 Thickness(10.0),
-                rs,
+                &drops(rs),
             )
         };
         assert_eq!(f(&[]), Err(NotApplicable::NoReadings));

@@ -8,7 +8,7 @@ use crate::{Error, Outcome};
 
 /// Runs the command.
 pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
-    let (_, a) = load_and_assess(&args.tank, args.sg, args.fill_height)?;
+    let a = load_and_assess(&args.tank, args.sg, args.fill_height)?;
     let v = View::new(a.tank.units, g.units);
     let out = match g.format {
         Format::Text => text::render(&a, &v, g.quiet),

@@ -9,8 +9,10 @@ use crate::cli::{CheckArgs, Format};
 use crate::input::error::{InputError, InputErrorKind, Location};
 use crate::input::scan_csv::{looks_like_scan, read_scan};
 use crate::input::survey_csv::{SurveyContext, read_survey};
-use crate::input::tank_dir::{SCAN_DIR, TANK_FILE, context_of, load_tank_dir, load_tank_file};
-use crate::model::reading::ReadingSet;
+use crate::input::tank_dir::{
+    RepeatFilter, SCAN_DIR, TANK_FILE, context_of, load_tank_dir, load_tank_file,
+};
+use crate::model::reading::{PointNames, ReadingSet};
 use crate::report::check::{Checked, render_json, render_text};
 use crate::report::write;
 use crate::{Error, Outcome};
@@ -102,12 +104,20 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
             today,
         },
     };
-    let mut set = ReadingSet::default();
-    let info = read_survey(&shown, &bytes, 0, &ctx, &mut set.readings)?;
-    set.files.push(shown);
+    let mut points = PointNames::default();
+    let mut readings = Vec::new();
+    let input = std::io::Cursor::new(bytes);
     match tank {
         Some(t) => {
-            let remarks = crate::input::tank_dir::remove_repeats(&t, &mut set)?;
+            let mut filter = RepeatFilter::new(t.units, &mut readings);
+            filter.files.push(shown.clone());
+            let info = read_survey(&shown, input, 0, &ctx, &mut points, &mut filter)?;
+            let (files, remarks) = filter.finish()?;
+            let set = ReadingSet {
+                files,
+                readings,
+                scans: Vec::new(),
+            };
             let screening = screen(Some(&t), &set);
             Ok(Checked::Tank {
                 dir: info.path.clone(),
@@ -118,9 +128,17 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
                 scans: Vec::new(),
             })
         }
-        None => Ok(Checked::File {
-            screening: screen(None, &set),
-            info,
-        }),
+        None => {
+            let info = read_survey(&shown, input, 0, &ctx, &mut points, &mut readings)?;
+            let set = ReadingSet {
+                files: vec![shown],
+                readings,
+                scans: Vec::new(),
+            };
+            Ok(Checked::File {
+                screening: screen(None, &set),
+                info,
+            })
+        }
     }
 }

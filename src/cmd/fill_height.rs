@@ -9,7 +9,7 @@ use crate::{Error, Outcome};
 
 /// Runs the command.
 pub fn run(args: &FillHeightArgs, g: Global) -> Result<Outcome, Error> {
-    let (_, a) = load_and_assess(&args.tank, None, None)?;
+    let a = load_and_assess(&args.tank, None, None)?;
     let years = args.years.unwrap_or(a.summary.ut_interval.years);
     let scenarios = fill_scenarios(&a, &args.sgs, years);
     let v = View::new(a.tank.units, g.units);

@@ -78,6 +78,9 @@ pub enum InputErrorKind {
     /// A tank folder without tank.toml.
     #[error("no tank.toml here: a tank folder holds tank.toml and surveys/*.csv")]
     NoTankFile,
+    /// A fleet folder without any tank folder below it.
+    #[error("no tank folder (a folder holding tank.toml) below this folder")]
+    NoTankFolders,
     /// A path that is neither a tank folder nor a CSV file.
     #[error("not a tank folder (with tank.toml) nor a .csv file")]
     NotATankOrCsv,

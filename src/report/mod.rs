@@ -5,6 +5,7 @@ pub mod caution;
 pub mod check;
 pub mod csv_out;
 pub mod fill;
+pub mod fleet;
 pub mod json;
 pub mod required;
 pub mod text;

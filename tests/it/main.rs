@@ -5,6 +5,7 @@ mod assess;
 mod check;
 mod errors;
 mod fill_height;
+mod fleet;
 mod properties;
 mod reference;
 mod required;
