@@ -489,3 +489,20 @@ fn missing_material_uses_the_unknown_defaults() {
             .contains("course 1: no material in tank.toml")
     );
 }
+
+/// A point id names a location on its course: many survey forms number the points
+/// of every course the same way (N, E, S, W), so the same id on two courses on one
+/// date is two points, not a repeat.
+#[test]
+fn point_ids_are_per_course() {
+    let fx = TankFixture::new(SMALL_SI_TANK).survey(
+        "s.csv",
+        "date,course,point,thickness\n2024-06-01,1,N,9.0\n2024-06-01,1,S,9.2\n\
+         2024-06-01,2,N,7.0\n2024-06-01,2,S,7.1\n2024-06-01,3,N,5.0\n",
+    );
+    let run = strake(["assess", fx.path().to_str().expect("utf-8 path"), "--format", "json"]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let v = json(&run);
+    assert_eq!(num(&v, "/courses/0/t_actual"), 9.0);
+    assert_eq!(num(&v, "/courses/1/t_actual"), 7.0);
+}
