@@ -2,6 +2,7 @@
 //! typed, validated values with their file and line attached.
 
 pub mod error;
+pub mod limits;
 pub mod survey_csv;
 pub mod tank_dir;
 pub mod tank_file;

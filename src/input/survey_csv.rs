@@ -13,7 +13,7 @@
 
 use chrono::NaiveDate;
 
-use super::error::{InputError, InputErrorKind, Location, nearest};
+use super::error::{InputError, InputErrorKind, Location, echo, nearest};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{Origin, Reading};
@@ -125,6 +125,8 @@ struct Columns {
     azimuth: Option<usize>,
     note: Option<usize>,
     names: Vec<String>,
+    /// Columns with an empty header name: their cells must be empty.
+    unnamed: Vec<usize>,
 }
 
 const BOM: &[u8] = b"\xEF\xBB\xBF";
@@ -158,6 +160,19 @@ pub fn read_survey(
     out: &mut Vec<Reading>,
 ) -> Result<SurveyFileInfo, InputError> {
     let bytes = bytes.strip_prefix(BOM).unwrap_or(bytes);
+    // The whole file must be UTF-8: checked first, so that the message points at the
+    // line and column of the first bad byte, wherever it is (comment lines included).
+    if let Err(e) = std::str::from_utf8(bytes) {
+        let offset = e.valid_up_to();
+        let valid = String::from_utf8_lossy(&bytes[..offset]);
+        return Err(InputError::new(
+            Location::at_offset(path, &valid, offset),
+            InputErrorKind::NotUtf8 {
+                column: None,
+                byte: bytes.get(offset).copied(),
+            },
+        ));
+    }
     let delimiter = detect_delimiter(bytes);
     let mut reader = csv::ReaderBuilder::new()
         .has_headers(false)
@@ -168,54 +183,67 @@ pub fn read_survey(
         .from_reader(bytes);
     let mut record = csv::ByteRecord::new();
     let at = |line: u64| Location::line(path, line);
-    let read = |reader: &mut csv::Reader<&[u8]>, record: &mut csv::ByteRecord| {
-        reader.read_byte_record(record).map_err(|e| {
+    let read = |reader: &mut csv::Reader<&[u8]>, record: &mut csv::ByteRecord| loop {
+        let more = reader.read_byte_record(record).map_err(|e| {
             let line = e.position().map_or(1, |p| p.line());
             InputError::new(
                 at(line),
                 InputErrorKind::Io(std::io::Error::other(e.to_string())),
             )
-        })
+        })?;
+        // A row of empty fields (a blank line, or ",,," from a spreadsheet) holds no
+        // reading: skipped.
+        if !more || record.iter().any(|f| !f.is_empty()) {
+            return Ok::<bool, InputError>(more);
+        }
     };
     if !read(&mut reader, &mut record)? {
-        return Err(InputError::new(
-            Location::file(path),
-            InputErrorKind::EmptyFile,
-        ));
+        return Err(InputError::new(at(1), InputErrorKind::EmptyFile));
     }
     let header_line = record.position().map_or(1, csv::Position::line);
+    single_lines(path, header_line, &record, None)?;
     let cols = header(path, header_line, &record)?;
-    let row_parser = RowParser {
+    let mut row_parser = RowParser {
         path,
         ctx,
         cols: &cols,
         delimiter,
         date_cache: None,
     };
-    let mut row_parser = row_parser;
     let mut rows = 0usize;
     while read(&mut reader, &mut record)? {
         let line = record.position().map_or(0, csv::Position::line);
-        if record.len() == 1 && record.get(0).is_some_and(<[u8]>::is_empty) {
-            continue;
-        }
+        single_lines(path, line, &record, Some(&cols.names))?;
         if record.len() != cols.names.len() {
+            let row: Vec<String> = record
+                .iter()
+                .map(|f| String::from_utf8_lossy(f).into_owned())
+                .collect();
             return Err(InputError::new(
                 at(line),
                 InputErrorKind::FieldCount {
                     found: record.len(),
                     expected: cols.names.len(),
+                    row: echo(&row.join(&char::from(delimiter).to_string())),
                 },
             ));
+        }
+        for &i in &cols.unnamed {
+            if let Some(value) = record.get(i).filter(|v| !v.is_empty()) {
+                return Err(InputError::new(
+                    at(line),
+                    InputErrorKind::UnnamedColumn {
+                        position: i + 1,
+                        value: echo(&String::from_utf8_lossy(value)),
+                    },
+                ));
+            }
         }
         out.push(row_parser.parse(&record, line, file_index)?);
         rows += 1;
     }
     if rows == 0 {
-        return Err(InputError::new(
-            Location::file(path),
-            InputErrorKind::HeaderOnly,
-        ));
+        return Err(InputError::new(at(header_line), InputErrorKind::HeaderOnly));
     }
     let thickness_unit = match cols.thickness.1 {
         Suffix::Si => Some("mm"),
@@ -231,20 +259,58 @@ pub fn read_survey(
     })
 }
 
+/// Refuses a record with a line break inside a value: in a survey file that is a quote
+/// left open, and the rows it swallowed would be lost without a word.
+fn single_lines(
+    path: &str,
+    line: u64,
+    record: &csv::ByteRecord,
+    names: Option<&[String]>,
+) -> Result<(), InputError> {
+    for (i, field) in record.iter().enumerate() {
+        if field.contains(&b'\n') || field.contains(&b'\r') {
+            let breaks = field.iter().filter(|&&b| b == b'\n').count() as u64;
+            return Err(InputError::new(
+                Location::line(path, line),
+                InputErrorKind::MultiLineValue {
+                    column: names.and_then(|n| n.get(i)).cloned(),
+                    first: line,
+                    last: line + breaks.max(1),
+                    value: echo(&String::from_utf8_lossy(field)),
+                },
+            ));
+        }
+    }
+    Ok(())
+}
+
 fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, InputError> {
     let at = || Location::line(path, line);
     let mut seen: Vec<(Field, usize, String)> = Vec::new();
     let mut names = Vec::with_capacity(record.len());
+    let mut unnamed = Vec::new();
     for (i, raw) in record.iter().enumerate() {
-        let name = std::str::from_utf8(raw)
-            .map_err(|_| InputError::new(at(), InputErrorKind::NotUtf8 { column: None }))?;
+        let name = std::str::from_utf8(raw).map_err(|_| {
+            InputError::new(
+                at(),
+                InputErrorKind::NotUtf8 {
+                    column: None,
+                    byte: None,
+                },
+            )
+        })?;
         names.push(name.to_string());
+        if name.is_empty() {
+            // A spreadsheet's trailing empty column: allowed while its cells are empty.
+            unnamed.push(i);
+            continue;
+        }
         let lower = name.to_ascii_lowercase();
         let Some(field) = Field::parse(&lower) else {
             return Err(InputError::new(
                 at(),
                 InputErrorKind::UnknownColumn {
-                    column: shorten(name),
+                    column: echo(name),
                     suggestion: nearest(&lower, KNOWN_COLUMNS.iter().copied()),
                     known: KNOWN_COLUMNS.join(", "),
                 },
@@ -254,7 +320,7 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
             return Err(InputError::new(
                 at(),
                 InputErrorKind::DuplicateColumn {
-                    column: first_name.clone(),
+                    column: echo(first_name),
                     first: first + 1,
                     second: i + 1,
                 },
@@ -268,8 +334,8 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
                 at(),
                 InputErrorKind::MixedUnits {
                     quantity: field.quantity(),
-                    first: first_name.clone(),
-                    second: name.to_string(),
+                    first: echo(first_name),
+                    second: echo(name),
                 },
             ));
         }
@@ -285,7 +351,7 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
             at(),
             InputErrorKind::MissingColumn {
                 column,
-                found: shorten(&names.join(", ")),
+                found: echo(&names.join(", ")),
             },
         )
     };
@@ -310,19 +376,8 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
         azimuth: find(|f| f == Field::Azimuth).map(|x| x.1),
         note: find(|f| f == Field::Note).map(|x| x.1),
         names,
+        unnamed,
     })
-}
-
-/// Longest echo of a bad value in a message.
-const ECHO_CHARS: usize = 60;
-
-fn shorten(raw: &str) -> String {
-    if raw.chars().count() > ECHO_CHARS {
-        let s: String = raw.chars().take(ECHO_CHARS - 3).collect();
-        format!("{s}...")
-    } else {
-        raw.to_string()
-    }
 }
 
 struct RowParser<'a> {
@@ -351,6 +406,7 @@ impl RowParser<'_> {
                 self.at(line),
                 InputErrorKind::NotUtf8 {
                     column: Some(self.cols.names[i].clone()),
+                    byte: None,
                 },
             )
         })
@@ -368,7 +424,7 @@ impl RowParser<'_> {
             self.at(line),
             InputErrorKind::BadValue {
                 column: self.cols.names[i].clone(),
-                value: shorten(value),
+                value: echo(value),
                 what,
                 expected,
             },
@@ -380,7 +436,7 @@ impl RowParser<'_> {
             self.at(line),
             InputErrorKind::OutOfRange {
                 column: self.cols.names[i].clone(),
-                value: shorten(&value),
+                value: echo(&value),
                 problem,
             },
         )
@@ -497,9 +553,13 @@ impl RowParser<'_> {
                 ti,
                 format!("{raw} {unit_name}"),
                 format!(
-                    "is more than 3 x the nominal {} of course {course}: a unit \
-                         mistake? name the column thickness_mm or thickness_in to say the unit",
-                    Shown::thickness(*nominal, units)
+                    "is more than 3 x the nominal {} of course {course}: a unit mistake? {}",
+                    Shown::thickness(*nominal, units),
+                    match suffix {
+                        Suffix::None =>
+                            "name the column thickness_mm or thickness_in to say the unit",
+                        _ => "the column name gives the unit: are the readings in another one?",
+                    }
                 ),
             ));
         }

@@ -48,24 +48,48 @@ fn read_bytes(path: &Path) -> Result<Vec<u8>, InputError> {
 
 /// Reads and validates `dir/tank.toml`.
 pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
+    let shown_dir = dir.display().to_string();
+    if !dir.exists() {
+        return Err(InputError::new(
+            Location::file(shown_dir),
+            InputErrorKind::Io(std::io::Error::new(
+                std::io::ErrorKind::NotFound,
+                "no such file or folder",
+            )),
+        ));
+    }
+    if !dir.is_dir() {
+        return Err(InputError::new(
+            Location::file(shown_dir),
+            InputErrorKind::NotATankFolder,
+        ));
+    }
     let path = dir.join(TANK_FILE);
-    let shown = path.display().to_string();
     if !path.is_file() {
         return Err(InputError::new(
-            Location::file(dir.display().to_string()),
+            Location::file(shown_dir),
             InputErrorKind::NoTankFile,
         ));
     }
     let bytes = read_bytes(&path)?;
-    let text = String::from_utf8(bytes).map_err(|e| {
-        let offset = e.utf8_error().valid_up_to();
-        let valid = String::from_utf8_lossy(&e.as_bytes()[..offset]).into_owned();
+    tank_from_bytes(&path.display().to_string(), &bytes)
+}
+
+/// Validates the bytes of a tank file; `shown` names it in messages. Text that is not
+/// UTF-8 is refused at the line and column of the first bad byte.
+pub fn tank_from_bytes(shown: &str, bytes: &[u8]) -> Result<Tank, InputError> {
+    let text = std::str::from_utf8(bytes).map_err(|e| {
+        let offset = e.valid_up_to();
+        let valid = String::from_utf8_lossy(&bytes[..offset]);
         InputError::new(
-            Location::at_offset(&shown, &valid, offset),
-            InputErrorKind::NotUtf8 { column: None },
+            Location::at_offset(shown, &valid, offset),
+            InputErrorKind::NotUtf8 {
+                column: None,
+                byte: bytes.get(offset).copied(),
+            },
         )
     })?;
-    parse_tank(&shown, &text)
+    parse_tank(shown, text)
 }
 
 /// The survey files of a tank folder, sorted by name (none when there is no

@@ -13,7 +13,8 @@ use serde::Deserialize;
 use toml::Spanned;
 use toml::de::{DeTable, DeValue, ValueDeserializer};
 
-use super::error::{InputError, InputErrorKind, Location, nearest};
+use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
+use super::limits::{self, MIN_JOINT_EFFICIENCY, Plausible};
 use crate::calc::constants::MAX_SPECIFIC_GRAVITY;
 use crate::calc::materials::{find_grade, grade_names};
 use crate::calc::units::{Length, Stress, Thickness, UnitSystem};
@@ -33,6 +34,9 @@ pub const TANK_KEYS: &[&str] = &[
     "assessment",
     "course",
 ];
+/// What the `course` key holds.
+const COURSES_EXPECTED: &str = "[[course]] tables, one per course, bottom course first";
+
 /// Keys of `[assessment]`.
 pub const ASSESSMENT_KEYS: &[&str] = &["thickness_basis", "rate_basis"];
 /// Keys of each `[[course]]`.
@@ -48,6 +52,12 @@ pub const COURSE_KEYS: &[&str] = &[
 /// Parses and validates the text of a tank file; `path` is used in messages.
 pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    if text.trim().is_empty() {
+        return Err(InputError::new(
+            Location::line(path, 1),
+            InputErrorKind::EmptyTankFile,
+        ));
+    }
     let doc = Doc { path, text };
     let root = DeTable::parse(text).map_err(|e| doc.syntax(&e))?;
     let top = Table::new(&doc, root.get_ref(), root.span(), None, TANK_KEYS)?;
@@ -73,10 +83,10 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     };
     let lu = units.length_unit();
     let tu = units.thickness_unit();
-    let su = units.stress_unit();
 
     let diameter = top.required_number("diameter", &format!("a number in {lu}"))?;
     top.positive(&diameter, "diameter", lu)?;
+    top.plausible(&diameter, "diameter", limits::diameter(units))?;
     let fill = top.required_number("max_fill_height", &format!("a number in {lu}"))?;
     top.positive(&fill, "max_fill_height", lu)?;
     let sg = top.required_number("specific_gravity", "a number, e.g. 0.85")?;
@@ -87,6 +97,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             "is out of range, expected more than 0 and at most 3 (water = 1.0)",
         ));
     }
+    top.plausible(&sg, "specific_gravity", limits::specific_gravity())?;
     let construction = match top.optional_string("construction", "\"welded\" or \"riveted\"")? {
         None => Construction::Welded,
         Some(c) => match c.get_ref().to_ascii_lowercase().as_str() {
@@ -159,6 +170,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             InputErrorKind::MissingKey {
                 key: "course",
                 table: None,
+                expected: COURSES_EXPECTED.into(),
             },
         ));
     }
@@ -168,9 +180,15 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
         let number = i as u32 + 1;
         let height = c.required_number("height", &format!("a number in {lu}"))?;
         c.positive(&height, "height", lu)?;
+        c.plausible(&height, "height", limits::course_height(units))?;
         let nominal = c.required_number("nominal_thickness", &format!("a number in {tu}"))?;
         c.positive(&nominal, "nominal_thickness", tu)?;
-        let material = course_material(c, construction, su)?;
+        c.plausible(
+            &nominal,
+            "nominal_thickness",
+            limits::nominal_thickness(units),
+        )?;
+        let material = course_material(c, construction, units)?;
         let e = match c.optional_number("joint_efficiency", "a number in (0, 1]")? {
             None => None,
             Some(e) => Some(c.efficiency(&e)?),
@@ -185,8 +203,8 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
         });
         bottom += *height.get_ref();
     }
-    let shell = bottom;
-    if *fill.get_ref() > shell + 1e-9 {
+    let shell = number_text(bottom);
+    if *fill.get_ref() > bottom + 1e-9 {
         return Err(top.invalid(
             &fill,
             "max_fill_height",
@@ -216,8 +234,9 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
 fn course_material(
     c: &Table<'_, '_>,
     construction: Construction,
-    su: &str,
+    units: UnitSystem,
 ) -> Result<Material, InputError> {
+    let su = units.stress_unit();
     let grade = c.optional_string("material", "a grade name, e.g. \"A36\"")?;
     let ys = c.optional_number("yield_strength", &format!("a number in {su}"))?;
     let ts = c.optional_number("tensile_strength", &format!("a number in {su}"))?;
@@ -256,19 +275,30 @@ fn course_material(
                     &format!(
                         "{su} is above tensile_strength {} {su}: expected yield below tensile \
                          (are the two swapped?)",
-                        t.get_ref()
+                        number_text(*t.get_ref())
                     ),
                 ));
             }
+            c.plausible(&y, "yield_strength", limits::strength(units))?;
+            c.plausible(&t, "tensile_strength", limits::strength(units))?;
             Ok(Material::Explicit {
                 yield_strength: Stress(*y.get_ref()),
                 tensile_strength: Stress(*t.get_ref()),
             })
         }
-        (None, Some(_), None) => Err(c.missing("tensile_strength")),
-        (None, None, Some(_)) => Err(c.missing("yield_strength")),
+        (None, Some(_), None) => Err(c.missing(
+            "tensile_strength",
+            &format!("a number in {su} beside yield_strength"),
+        )),
+        (None, None, Some(_)) => Err(c.missing(
+            "yield_strength",
+            &format!("a number in {su} beside tensile_strength"),
+        )),
         (None, None, None) if construction == Construction::Riveted => Ok(Material::NotGiven),
-        (None, None, None) => Err(c.missing("material")),
+        (None, None, None) => Err(c.missing(
+            "material",
+            "a grade name, e.g. \"A36\", or yield_strength and tensile_strength",
+        )),
     }
 }
 
@@ -287,21 +317,31 @@ impl Doc<'_> {
             Some(span) => self.at(&span),
             None => Location::file(self.path),
         };
-        let message = e.message().trim().replace('\n', " ");
+        let mut message = e.message().trim().replace('\n', " ");
+        // The toml crate names the problem and points at it; the text it points at
+        // (the repeated key, the unclosed string) is added so the message names it.
+        if let Some(span) = e.span() {
+            let at = self.text.get(span.clone()).unwrap_or("").trim();
+            let at = at.lines().next().unwrap_or("");
+            if !at.is_empty() {
+                message = format!("{message} at \"{}\"", echo(at));
+            } else if let Some(line) = self.line_at(span.start).filter(|l| !l.is_empty()) {
+                message = format!("{message}, in \"{}\"", echo(line));
+            }
+        }
         InputError::new(location, InputErrorKind::TomlSyntax(message))
     }
+    /// The text of the line holding byte `offset`, trimmed.
+    fn line_at(&self, offset: usize) -> Option<&str> {
+        let head = self.text.get(..offset)?;
+        let start = head.rfind('\n').map_or(0, |i| i + 1);
+        let rest = self.text.get(start..)?;
+        Some(rest.lines().next().unwrap_or("").trim())
+    }
+
     fn source(&self, span: &Range<usize>) -> String {
         let raw = self.text.get(span.clone()).unwrap_or("").trim();
-        shorten(raw)
-    }
-}
-
-fn shorten(raw: &str) -> String {
-    if raw.chars().count() > 60 {
-        let s: String = raw.chars().take(57).collect();
-        format!("{s}...")
-    } else {
-        raw.to_string()
+        echo(raw)
     }
 }
 
@@ -328,9 +368,10 @@ impl<'d, 'i> Table<'d, 'i> {
                 return Err(InputError::new(
                     doc.at(&key.span()),
                     InputErrorKind::UnknownKey {
-                        key: key.get_ref().to_string(),
+                        key: echo(key.get_ref()),
                         table: name.clone(),
                         suggestion: nearest(key.get_ref(), known.iter().copied()),
+                        known: known.join(", "),
                     },
                 ));
             }
@@ -354,7 +395,7 @@ impl<'d, 'i> Table<'d, 'i> {
         }
     }
 
-    fn missing(&self, key: &'static str) -> InputError {
+    fn missing(&self, key: &'static str, expected: &str) -> InputError {
         let location = match self.name {
             Some(_) => self.doc.at(&self.span),
             None => Location::file(self.doc.path),
@@ -364,6 +405,7 @@ impl<'d, 'i> Table<'d, 'i> {
             InputErrorKind::MissingKey {
                 key,
                 table: self.name.clone(),
+                expected: expected.to_string(),
             },
         )
     }
@@ -411,7 +453,7 @@ impl<'d, 'i> Table<'d, 'i> {
         expected: &str,
     ) -> Result<Spanned<String>, InputError> {
         self.optional_string(key, expected)?
-            .ok_or_else(|| self.missing(key))
+            .ok_or_else(|| self.missing(key, expected))
     }
 
     fn optional_number(
@@ -445,7 +487,7 @@ impl<'d, 'i> Table<'d, 'i> {
         expected: &str,
     ) -> Result<Spanned<f64>, InputError> {
         self.optional_number(key, expected)?
-            .ok_or_else(|| self.missing(key))
+            .ok_or_else(|| self.missing(key, expected))
     }
 
     fn positive(&self, v: &Spanned<f64>, key: &str, unit: &str) -> Result<(), InputError> {
@@ -460,16 +502,33 @@ impl<'d, 'i> Table<'d, 'i> {
         }
     }
 
+    /// Refuses a value outside its plausible range (a typing or unit mistake).
+    fn plausible(&self, v: &Spanned<f64>, key: &str, range: Plausible) -> Result<(), InputError> {
+        let x = *v.get_ref();
+        if x >= range.min && x <= range.max {
+            Ok(())
+        } else {
+            Err(self.invalid(v, key, range.why))
+        }
+    }
+
     fn efficiency(&self, v: &Spanned<f64>) -> Result<f64, InputError> {
         let e = *v.get_ref();
-        if e > 0.0 && e <= 1.0 {
-            Ok(e)
-        } else {
+        if !(e > 0.0 && e <= 1.0) {
             Err(self.invalid(
                 v,
                 "joint_efficiency",
                 "is out of range, expected more than 0 and at most 1 (e.g. 0.85)",
             ))
+        } else if e < MIN_JOINT_EFFICIENCY {
+            Err(self.invalid(
+                v,
+                "joint_efficiency",
+                "is below 0.3, lower than any joint the tank codes rate (single-lap welds are \
+                 about 0.35): a typing slip?",
+            ))
+        } else {
+            Ok(e)
         }
     }
 
@@ -519,12 +578,12 @@ impl<'d, 'i> Table<'d, 'i> {
         key: &'static str,
         known: &[&str],
     ) -> Result<Vec<Table<'d, 'i>>, InputError> {
+        let expected = COURSES_EXPECTED;
         let Some(v) = self.get(key) else {
-            return Err(self.missing(key));
+            return Err(self.missing(key, expected));
         };
-        let expected = format!("[[{key}]] tables, one per course, bottom course first");
         let DeValue::Array(items) = v.get_ref() else {
-            return Err(self.wrong_type(key, v, &expected));
+            return Err(self.wrong_type(key, v, expected));
         };
         let mut out = Vec::new();
         for (i, item) in items.iter().enumerate() {
@@ -536,7 +595,7 @@ impl<'d, 'i> Table<'d, 'i> {
                     Some(format!("{key} {}", i + 1)),
                     known,
                 )?),
-                _ => return Err(self.wrong_type(key, item, &expected)),
+                _ => return Err(self.wrong_type(key, item, expected)),
             }
         }
         Ok(out)

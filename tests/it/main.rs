@@ -3,6 +3,7 @@
 
 mod assess;
 mod check;
+mod corpus;
 mod errors;
 mod fill_height;
 mod properties;
