@@ -383,9 +383,17 @@ pub fn number_text(v: f64) -> String {
     rounded.to_string()
 }
 
+/// Longest name for which a nearest known name is sought.
+const NEAREST_MAX_LEN: usize = 64;
+
 /// The known name nearest to `name` (Jaro-Winkler similarity from strsim), when it is
 /// close enough to be a likely typo.
 pub fn nearest<'a>(name: &str, known: impl IntoIterator<Item = &'a str>) -> Option<String> {
+    // No typo of a short name is this long; and the similarity's cost grows with the
+    // length (a 10 MB header line took most of a minute).
+    if name.len() > NEAREST_MAX_LEN {
+        return None;
+    }
     let lower = name.to_ascii_lowercase();
     known
         .into_iter()
@@ -435,5 +443,6 @@ mod tests {
         assert_eq!(nearest("diamter", keys), Some("diameter".into()));
         assert_eq!(nearest("fill_height", keys), Some("max_fill_height".into()));
         assert_eq!(nearest("zzz", keys), None);
+        assert_eq!(nearest(&"diameter".repeat(1000), keys), None);
     }
 }

@@ -112,6 +112,14 @@ pub fn specific_gravity() -> Plausible {
 /// raise t_min tenfold.
 pub const MIN_JOINT_EFFICIENCY: f64 = 0.3;
 
+/// Longest tank id, in characters: a short tag that heads every output.
+pub const MAX_ID_CHARS: usize = 40;
+/// Longest tank name, in characters: one line of a report heading.
+pub const MAX_NAME_CHARS: usize = 200;
+/// Longest monitoring point id, in characters (ids such as "D5-C1-L" or
+/// "TML-012-N"; the hot-spot list prints them).
+pub const MAX_POINT_CHARS: usize = 64;
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -13,7 +13,8 @@
 
 use chrono::NaiveDate;
 
-use super::error::{InputError, InputErrorKind, Location, echo, nearest};
+use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
+use super::limits::MAX_POINT_CHARS;
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{Origin, Reading};
@@ -436,7 +437,8 @@ impl RowParser<'_> {
             self.at(line),
             InputErrorKind::OutOfRange {
                 column: self.cols.names[i].clone(),
-                value: echo(&value),
+                // Numbers and dates as shown; a text value comes quoted and echoed.
+                value,
                 problem,
             },
         )
@@ -540,7 +542,7 @@ impl RowParser<'_> {
             return Err(self.range(
                 line,
                 ti,
-                format!("{raw} {unit_name}"),
+                format!("{} {unit_name}", number_text(raw)),
                 format!("is not positive, expected {expected}"),
             ));
         }
@@ -551,7 +553,7 @@ impl RowParser<'_> {
             return Err(self.range(
                 line,
                 ti,
-                format!("{raw} {unit_name}"),
+                format!("{} {unit_name}", number_text(raw)),
                 format!(
                     "is more than 3 x the nominal {} of course {course}: a unit mistake? {}",
                     Shown::thickness(*nominal, units),
@@ -566,9 +568,21 @@ impl RowParser<'_> {
 
         // optional columns
         let point = match cols.point {
-            Some(i) => Some(self.text(record, i, line)?)
-                .filter(|s| !s.is_empty())
-                .map(Box::from),
+            Some(i) => {
+                let p = self.text(record, i, line)?;
+                if p.chars().count() > MAX_POINT_CHARS {
+                    return Err(self.range(
+                        line,
+                        i,
+                        format!("\"{}\"", echo(p)),
+                        format!(
+                            "is too long for a point id, expected at most {MAX_POINT_CHARS} \
+                             characters (e.g. \"D5-C1-L\")"
+                        ),
+                    ));
+                }
+                Some(p).filter(|s| !s.is_empty()).map(Box::from)
+            }
             None => None,
         };
         let elevation = match cols.elevation {
@@ -581,7 +595,7 @@ impl RowParser<'_> {
                         return Err(self.range(
                             line,
                             i,
-                            format!("{v} {unit_name}"),
+                            format!("{} {unit_name}", number_text(v)),
                             format!("is negative, expected {expected}"),
                         ));
                     }
@@ -594,11 +608,20 @@ impl RowParser<'_> {
                             return Err(self.range(
                                 line,
                                 i,
-                                format!("{v} {unit_name}"),
+                                format!("{} {unit_name}", number_text(v)),
                                 format!(
-                                    "is above the shell height {} {lu}: a unit mistake? name the \
-                                         column elevation_m or elevation_ft to say the unit",
-                                    shell.0
+                                    "is above the shell height {} {lu}: a unit mistake? {}",
+                                    number_text(shell.0),
+                                    match suffix {
+                                        Suffix::None => {
+                                            "name the column elevation_m or elevation_ft to \
+                                             say the unit"
+                                        }
+                                        _ => {
+                                            "the column name gives the unit: are the values \
+                                             in another one?"
+                                        }
+                                    }
                                 ),
                             ));
                         }
@@ -616,7 +639,7 @@ impl RowParser<'_> {
                     return Err(self.range(
                         line,
                         i,
-                        a.to_string(),
+                        number_text(a),
                         "is outside 0 to 360 degrees".into(),
                     ));
                 }

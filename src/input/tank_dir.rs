@@ -1,7 +1,7 @@
 //! Loads a tank folder: `tank.toml` and every `surveys/*.csv`.
 
 use std::collections::HashMap;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use chrono::NaiveDate;
 
@@ -93,11 +93,13 @@ pub fn tank_from_bytes(shown: &str, bytes: &[u8]) -> Result<Tank, InputError> {
 }
 
 /// The survey files of a tank folder, sorted by name (none when there is no
-/// surveys/ folder).
-pub fn survey_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
+/// surveys/ folder), and the other entries of surveys/ that are not read (so that a
+/// survey saved as .xlsx or .txt is reported, not silently left out). Hidden entries
+/// (names starting with '.') are skipped without a word.
+pub fn survey_files(dir: &Path) -> Result<(Vec<PathBuf>, Vec<PathBuf>), InputError> {
     let folder = dir.join(SURVEY_DIR);
     if !folder.is_dir() {
-        return Ok(Vec::new());
+        return Ok((Vec::new(), Vec::new()));
     }
     let entries = std::fs::read_dir(&folder).map_err(|e| {
         InputError::new(
@@ -106,6 +108,7 @@ pub fn survey_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
         )
     })?;
     let mut files = Vec::new();
+    let mut skipped = Vec::new();
     for entry in entries {
         let entry = entry.map_err(|e| {
             InputError::new(
@@ -119,14 +122,19 @@ pub fn survey_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
             .is_some_and(|x| x.eq_ignore_ascii_case("csv"));
         let hidden = path
             .file_name()
-            .and_then(|n| n.to_str())
-            .is_some_and(|n| n.starts_with('.'));
-        if is_csv && !hidden && path.is_file() {
+            .is_some_and(|n| n.to_string_lossy().starts_with('.'));
+        if hidden {
+            continue;
+        }
+        if is_csv && path.is_file() {
             files.push(path);
+        } else {
+            skipped.push(path);
         }
     }
     files.sort();
-    Ok(files)
+    skipped.sort();
+    Ok((files, skipped))
 }
 
 /// The reading context of a tank.
@@ -146,14 +154,22 @@ pub fn load_tank_dir(dir: &Path, today: NaiveDate) -> Result<TankFolder, InputEr
     let ctx = context_of(&tank, today);
     let mut set = ReadingSet::default();
     let mut files = Vec::new();
-    for (i, path) in survey_files(dir)?.iter().enumerate() {
+    let (survey_paths, skipped) = survey_files(dir)?;
+    for (i, path) in survey_paths.iter().enumerate() {
         let shown = path.display().to_string();
         let bytes = read_bytes(path)?;
         let info = read_survey(&shown, &bytes, i as u32, &ctx, &mut set.readings)?;
         set.files.push(shown);
         files.push(info);
     }
-    let warnings = remove_repeats(&tank, &mut set)?;
+    let mut warnings: Vec<Warning> = skipped
+        .iter()
+        .map(|p| Warning::NotRead {
+            path: p.display().to_string(),
+            folder: p.is_dir(),
+        })
+        .collect();
+    warnings.extend(remove_repeats(&tank, &mut set)?);
     Ok(TankFolder {
         dir: dir.display().to_string(),
         tank,

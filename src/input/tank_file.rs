@@ -66,9 +66,28 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     if id.get_ref().trim().is_empty() {
         return Err(top.invalid(&id, "id", "is empty, expected a short tag"));
     }
-    let name = top
-        .optional_string("name", "a text")?
-        .map(Spanned::into_inner);
+    if id.get_ref().chars().count() > limits::MAX_ID_CHARS
+        || id.get_ref().contains(char::is_control)
+    {
+        return Err(top.invalid(
+            &id,
+            "id",
+            "is not a short tag, expected at most 40 characters on one line, e.g. \"T-101\" \
+             (the full name goes in \"name\")",
+        ));
+    }
+    let name = top.optional_string("name", "a text")?;
+    if let Some(n) = &name
+        && (n.get_ref().chars().count() > limits::MAX_NAME_CHARS
+            || n.get_ref().contains(char::is_control))
+    {
+        return Err(top.invalid(
+            n,
+            "name",
+            "is too long for a name, expected at most 200 characters on one line",
+        ));
+    }
+    let name = name.map(Spanned::into_inner);
     let units_v = top.required_string("units", "\"SI\" or \"USC\"")?;
     let units = match units_v.get_ref().to_ascii_uppercase().as_str() {
         "SI" => UnitSystem::Si,
@@ -341,6 +360,16 @@ impl Doc<'_> {
 
     fn source(&self, span: &Range<usize>) -> String {
         let raw = self.text.get(span.clone()).unwrap_or("").trim();
+        // A long quoted string keeps its quotes around the shortened text.
+        for q in ['"', '\''] {
+            if let Some(inner) = raw
+                .strip_prefix(q)
+                .and_then(|r| r.strip_suffix(q))
+                .filter(|i| !i.starts_with(q))
+            {
+                return format!("{q}{}{q}", echo(inner));
+            }
+        }
         echo(raw)
     }
 }

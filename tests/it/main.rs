@@ -6,6 +6,7 @@ mod check;
 mod corpus;
 mod errors;
 mod fill_height;
+mod io_safety;
 mod properties;
 mod reference;
 mod samples;
