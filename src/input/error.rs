@@ -254,6 +254,19 @@ pub enum InputErrorKind {
         /// What was expected there.
         expected: String,
     },
+    /// A tank key written inside a table, below a [table] header.
+    #[error(
+        "key \"{key}\" is inside {table}, where it does not belong: the tank's keys go above \
+         the first [table] or [[course]] header (expected {expected})"
+    )]
+    MisplacedKey {
+        /// Key.
+        key: &'static str,
+        /// The table it is in, as a message names it.
+        table: String,
+        /// What was expected.
+        expected: String,
+    },
     /// A key that is not known.
     #[error(
         "unknown key \"{key}\"{}{}",

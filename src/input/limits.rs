@@ -120,6 +120,10 @@ pub const MAX_NAME_CHARS: usize = 200;
 /// "TML-012-N"; the hot-spot list prints them).
 pub const MAX_POINT_CHARS: usize = 64;
 
+/// Earliest plausible survey year. Ultrasonic thickness gauges came into field use in
+/// the 1950s (from memory); 1900 leaves room and still catches "0202" for "2020".
+pub const EARLIEST_SURVEY_YEAR: i32 = 1900;
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -11,10 +11,10 @@
 //!
 //! The csv crate does the CSV; this module only decides what each field means.
 
-use chrono::NaiveDate;
+use chrono::{Datelike, NaiveDate};
 
 use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
-use super::limits::MAX_POINT_CHARS;
+use super::limits::{EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{Origin, Reading};
@@ -713,6 +713,17 @@ impl RowParser<'_> {
                 format!(
                     "is after today ({}), expected the date the survey was made",
                     self.ctx.today
+                ),
+            ));
+        }
+        if date.year() < EARLIEST_SURVEY_YEAR {
+            return Err(self.range(
+                line,
+                i,
+                s.to_string(),
+                format!(
+                    "is before {EARLIEST_SURVEY_YEAR}: no thickness survey is that old; a \
+                     typing slip? expected the date the survey was made"
                 ),
             ));
         }

@@ -425,6 +425,19 @@ impl<'d, 'i> Table<'d, 'i> {
     }
 
     fn missing(&self, key: &'static str, expected: &str) -> InputError {
+        if self.name.is_none()
+            && let Some((table, span)) = find_nested(self.table, key, "", 0)
+        {
+            // A tank key written below a [table] header belongs to that table.
+            return InputError::new(
+                self.doc.at(&span),
+                InputErrorKind::MisplacedKey {
+                    key,
+                    table,
+                    expected: expected.to_string(),
+                },
+            );
+        }
         let location = match self.name {
             Some(_) => self.doc.at(&self.span),
             None => Location::file(self.doc.path),
@@ -629,6 +642,53 @@ impl<'d, 'i> Table<'d, 'i> {
         }
         Ok(out)
     }
+}
+
+/// Where `key` sits inside a table below `table` (not at its own level): the table's
+/// name as a message gives it, and the key's span. Searches a few levels deep.
+fn find_nested(
+    table: &DeTable<'_>,
+    key: &str,
+    prefix: &str,
+    depth: usize,
+) -> Option<(String, Range<usize>)> {
+    if depth > 4 {
+        return None;
+    }
+    let mut entries: Vec<_> = table.iter().collect();
+    entries.sort_by_key(|(k, _)| k.span().start);
+    for (k, v) in entries {
+        let name = if prefix.is_empty() {
+            k.get_ref().to_string()
+        } else {
+            format!("{prefix}.{}", k.get_ref())
+        };
+        match v.get_ref() {
+            DeValue::Table(t) => {
+                if let Some((found, _)) = t.get_key_value(key) {
+                    return Some((format!("[{}]", echo(&name)), found.span()));
+                }
+                if let Some(hit) = find_nested(t, key, &name, depth + 1) {
+                    return Some(hit);
+                }
+            }
+            DeValue::Array(items) => {
+                for (i, item) in items.iter().enumerate() {
+                    if let DeValue::Table(t) = item.get_ref() {
+                        if let Some((found, _)) = t.get_key_value(key) {
+                            return Some((format!("{} {}", echo(&name), i + 1), found.span()));
+                        }
+                        let inner = format!("{name} {}", i + 1);
+                        if let Some(hit) = find_nested(t, key, &inner, depth + 1) {
+                            return Some(hit);
+                        }
+                    }
+                }
+            }
+            _ => {}
+        }
+    }
+    None
 }
 
 fn type_name(v: &DeValue<'_>) -> &'static str {
