@@ -159,6 +159,24 @@ pub enum InputErrorKind {
         /// The row as read (shortened).
         row: String,
     },
+    /// Every reading of a file far under nominal: a unit mistake.
+    #[error(
+        "every reading of this file ({count}) is under a fifth of its course's nominal \
+         thickness, the first {first} on course {course} (nominal {nominal}): a unit mistake? \
+         {hint}"
+    )]
+    AllThin {
+        /// Readings in the file.
+        count: usize,
+        /// The first reading, as shown.
+        first: String,
+        /// Its course.
+        course: u32,
+        /// Its course's nominal thickness, as shown.
+        nominal: String,
+        /// What to do.
+        hint: &'static str,
+    },
     /// A header column without a name that holds a value in some row.
     #[error(
         "column {position} has no name in the header but holds \"{value}\": name it (e.g. \

@@ -124,6 +124,12 @@ pub const MAX_POINT_CHARS: usize = 64;
 /// the 1950s (from memory); 1900 leaves room and still catches "0202" for "2020".
 pub const EARLIEST_SURVEY_YEAR: i32 = 1900;
 
+/// A survey file whose every reading is under this fraction of its course's nominal
+/// thickness is refused as a unit mistake: inches read as mm give about 1/25 of
+/// nominal, and no real survey finds a whole shell worn to a fifth of its plate
+/// (common practice).
+pub const ALL_THIN_FACTOR: f64 = 0.2;
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -14,7 +14,7 @@
 use chrono::{Datelike, NaiveDate};
 
 use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
-use super::limits::{EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
+use super::limits::{ALL_THIN_FACTOR, EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{Origin, Reading};
@@ -212,6 +212,7 @@ pub fn read_survey(
         date_cache: None,
     };
     let mut rows = 0usize;
+    let first_new = out.len();
     while read(&mut reader, &mut record)? {
         let line = record.position().map_or(0, csv::Position::line);
         single_lines(path, line, &record, Some(&cols.names))?;
@@ -246,6 +247,7 @@ pub fn read_survey(
     if rows == 0 {
         return Err(InputError::new(at(header_line), InputErrorKind::HeaderOnly));
     }
+    all_thin(path, ctx, cols.thickness.1, &out[first_new..])?;
     let thickness_unit = match cols.thickness.1 {
         Suffix::Si => Some("mm"),
         Suffix::Usc => Some("in"),
@@ -258,6 +260,46 @@ pub fn read_survey(
         rows,
         thickness_unit,
     })
+}
+
+/// Refuses a file whose every reading is under [`ALL_THIN_FACTOR`] of its course's
+/// nominal thickness: inches read as mm give about 1/25 of nominal, while no real
+/// survey finds a whole shell worn to a fifth of its plate.
+fn all_thin(
+    path: &str,
+    ctx: &SurveyContext,
+    suffix: Suffix,
+    readings: &[Reading],
+) -> Result<(), InputError> {
+    let Some(units) = ctx.units else {
+        return Ok(());
+    };
+    let nominal_of = |r: &Reading| ctx.nominal.get(r.course as usize - 1).copied();
+    let thin = |r: &Reading| nominal_of(r).is_some_and(|n| r.thickness.0 < ALL_THIN_FACTOR * n.0);
+    let Some(first) = readings.first() else {
+        return Ok(());
+    };
+    if !readings.iter().all(thin) {
+        return Ok(());
+    }
+    let nominal = nominal_of(first).unwrap_or(Thickness(f64::NAN));
+    Err(InputError::new(
+        Location::line(path, first.origin.line),
+        InputErrorKind::AllThin {
+            count: readings.len(),
+            first: format!(
+                "{} {}",
+                number_text(first.thickness.0),
+                units.thickness_unit()
+            ),
+            nominal: Shown::thickness(nominal, units).to_string(),
+            course: first.course,
+            hint: match suffix {
+                Suffix::None => "name the column thickness_in or thickness_mm to say the unit",
+                _ => "the column name gives the unit: are the readings in another one?",
+            },
+        },
+    ))
 }
 
 /// Refuses a record with a line break inside a value: in a survey file that is a quote
