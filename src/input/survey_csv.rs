@@ -4,10 +4,16 @@
 //!   refused (with the nearest known name suggested).
 //! - `,` `;` and tab delimiters are detected from the header line; with `;` or tab a
 //!   decimal comma is accepted. A UTF-8 byte-order mark and CRLF line ends are
-//!   tolerated; lines starting with `#` are comments; blank lines are skipped.
+//!   tolerated; lines starting with `#` are comments; blank lines and rows of empty
+//!   fields (",,," from a spreadsheet) hold no reading and are skipped.
+//! - The whole file must be UTF-8 (checked first, so the message gives the line and
+//!   column of the first bad byte). A value with a line break in it is refused: in a
+//!   survey it is a quote left open, which would swallow the rows after it.
+//! - A header column without a name is allowed while its cells are empty.
 //! - Unit-suffixed columns (`thickness_mm`, `thickness_in`, `elevation_m`,
 //!   `elevation_ft`) are converted to the tank's units.
-//! - Every row is either returned or refused with its line, column and value.
+//! - Every row is either returned or refused with its line, column and value; values
+//!   echoed in messages are shortened and escaped ([`echo`]).
 //!
 //! The csv crate does the CSV; this module only decides what each field means.
 
