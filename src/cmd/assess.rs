@@ -16,6 +16,10 @@ pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
         Format::Csv => csv_out::courses_csv(&a, &v).map_err(Error::Render)?,
     };
     write::print(&out, g.color).map_err(Error::Output)?;
+    if g.format == Format::Csv {
+        // CSV rows hold courses only: the warnings go to standard error, one a line.
+        write::warnings_to_stderr(&a.warnings).map_err(Error::Output)?;
+    }
     if args.fail_below_minimum && !a.summary.below_minimum.is_empty() {
         Ok(Outcome::BelowMinimum)
     } else {

@@ -500,7 +500,12 @@ fn point_ids_are_per_course() {
         "date,course,point,thickness\n2024-06-01,1,N,9.0\n2024-06-01,1,S,9.2\n\
          2024-06-01,2,N,7.0\n2024-06-01,2,S,7.1\n2024-06-01,3,N,5.0\n",
     );
-    let run = strake(["assess", fx.path().to_str().expect("utf-8 path"), "--format", "json"]);
+    let run = strake([
+        "assess",
+        fx.path().to_str().expect("utf-8 path"),
+        "--format",
+        "json",
+    ]);
     assert_eq!(run.code, 0, "{}", run.stderr);
     let v = json(&run);
     assert_eq!(num(&v, "/courses/0/t_actual"), 9.0);

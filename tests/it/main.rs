@@ -3,9 +3,11 @@
 
 mod assess;
 mod check;
+mod corpus;
 mod errors;
 mod fill_height;
 mod fleet;
+mod io_safety;
 mod properties;
 mod reference;
 mod required;
