@@ -1220,6 +1220,8 @@ mod tests {
             "9007199254740993",
             " 1",
             "1 ",
+            // Once found by the proptest below (kept here rather than in a regressions file).
+            "20000.000000000000000",
         ] {
             agrees(t);
         }
