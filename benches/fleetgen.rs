@@ -1,6 +1,6 @@
 //! Writes a synthetic fleet of tank folders for the benchmark (benches/run.sh).
 //!
-//! INVENTED DATA: every tank, date and reading is made up by a seeded pseudo-random
+//! INVENTED DATA: every tank, date and reading is made up by a pseudo-random
 //! generator (fastrand), so the same arguments always write the same bytes. The tanks
 //! are plausible, not real: nominal thicknesses from the one-foot design relation plus
 //! a corrosion allowance, steady thinning with gauge scatter, a few faster points.
@@ -29,9 +29,9 @@ struct Args {
     /// Readings per survey (one per monitoring point).
     #[arg(long, default_value_t = 400)]
     readings: usize,
-    /// Seed of the generator.
+    /// Starting state of the generator (the same value gives the same bytes).
     #[arg(long, default_value_t = 7)]
-    seed: u64,
+    state: u64,
     /// Added by `cargo bench`; ignored.
     #[arg(long, hide = true)]
     bench: bool,
@@ -88,7 +88,7 @@ fn main() -> Result<(), Box<dyn std::error::Error>> {
 }
 
 fn write_tank(args: &Args, t: usize) -> Result<usize, Box<dyn std::error::Error>> {
-    let mut rng = fastrand::Rng::with_seed(args.seed.wrapping_mul(1_000_003) + t as u64);
+    let mut rng = fastrand::Rng::with_seed(args.state.wrapping_mul(1_000_003) + t as u64);
     let usc = t % 4 == 3;
     let dir: PathBuf = args
         .out

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # The fleet benchmark, side by side in one run (README, "Speed"):
-#   1. generate synthetic fleets (benches/fleetgen.rs, seeded: the same bytes every time):
+#   1. generate synthetic fleets (benches/fleetgen.rs, deterministic: the same bytes every time):
 #      4M  = 2,000 tanks x 5 surveys x 400 readings  (4 million rows)
 #      16M = 2,000 tanks x 20 surveys x 400 readings (16 million rows: 4x the readings
 #            of the same tanks and points, so memory must not follow the rows)

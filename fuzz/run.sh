@@ -4,7 +4,7 @@
 #   fuzz/run.sh [SECONDS] [TARGET...]        targets: survey_csv tank_file
 # Needs cargo-fuzz (`cargo install cargo-fuzz`). Only a stable toolchain exists here;
 # RUSTC_BOOTSTRAP=1 lets it use the nightly-only flags that cargo-fuzz passes.
-# Seeds: the sample tanks and the bad-input corpus (tests/corpus). Crashing inputs are
+# Starting corpus: the sample tanks and the bad-input corpus (tests/corpus). Crashing inputs are
 # left in fuzz/artifacts/TARGET/; keep each as a regression test (tests/it/fuzz_found.rs).
 set -uo pipefail
 cd "$(dirname "$0")/.."
@@ -14,7 +14,7 @@ shift || true
 targets=("$@")
 [ "${#targets[@]}" -eq 0 ] && targets=(survey_csv tank_file)
 
-seed() {
+prime_corpus() {
   local target="$1" dir="fuzz/corpus/$1"
   mkdir -p "$dir"
   case "$target" in
@@ -24,18 +24,18 @@ seed() {
         [ -f "$f" ] || continue
         local prefix='\001'
         case "$f" in *kestrel-t03*) prefix='\002' ;; esac
-        { printf "$prefix"; head -c 16000 "$f"; } > "$dir/seed-$(echo "$f" | tr '/' '_')"
+        { printf "$prefix"; head -c 16000 "$f"; } > "$dir/start-$(echo "$f" | tr '/' '_')"
       done ;;
     tank_file)
       for f in sample-inspections/*/tank.toml tests/corpus/*/tank.toml; do
-        [ -f "$f" ] && cp "$f" "$dir/seed-$(echo "$f" | tr '/' '_')"
+        [ -f "$f" ] && cp "$f" "$dir/start-$(echo "$f" | tr '/' '_')"
       done ;;
   esac
 }
 
 status=0
 for t in "${targets[@]}"; do
-  seed "$t"
+  prime_corpus "$t"
   echo "== fuzz $t for $secs s (started $(date -u +%H:%M:%S) UTC)"
   RUSTC_BOOTSTRAP=1 cargo fuzz run -O "$t" "fuzz/corpus/$t" -- \
     -max_total_time="$secs" -max_len=16384 -timeout=10 -rss_limit_mb=2048 -print_final_stats=1 \
