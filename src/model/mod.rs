@@ -3,5 +3,6 @@
 
 pub mod reading;
 pub mod result;
+pub mod series;
 pub mod tank;
 pub mod warning;
