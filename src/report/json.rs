@@ -152,7 +152,8 @@ pub fn course(c: &CourseResult, v: &View) -> JsonCourse {
     }
 }
 
-fn point(p: &PointResult, v: &View) -> JsonPoint {
+/// The record of one monitoring point (shared with `points.csv`).
+pub fn point(p: &PointResult, v: &View) -> JsonPoint {
     JsonPoint {
         point: p.point.clone(),
         course: p.course,
