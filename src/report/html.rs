@@ -90,7 +90,7 @@ fn masthead(o: &mut String, a: &Assessment, v: &View, name: Option<&str>, ctx: R
         o,
         "<header class=\"masthead\">\n<p class=\"kicker\">Above-ground storage tank · shell \
          thickness assessment</p>\n<h1>Tank {}{}</h1>\n<p class=\"meta\">Assessed as of \
-         <b>{}</b> from {} survey{} ({} to {}), {readings} readings · numbers in {} units{} · \
+         <b>{}</b> from {} survey{} ({}), {readings} readings · numbers in {} units{} · \
          strake {}{}</p>\n",
         esc(&t.id),
         name.map(|n| format!(" <span class=\"name\">{n}</span>"))
@@ -98,8 +98,10 @@ fn masthead(o: &mut String, a: &Assessment, v: &View, name: Option<&str>, ctx: R
         a.as_of,
         a.surveys.len(),
         if a.surveys.len() == 1 { "" } else { "s" },
-        first.map_or(String::new(), |d| d.to_string()),
-        a.latest_survey,
+        match first {
+            Some(d) if d != a.latest_survey => format!("{d} to {}", a.latest_survey),
+            _ => a.latest_survey.to_string(),
+        },
         v.to.name(),
         if v.to == v.from {
             String::new()
@@ -421,10 +423,17 @@ fn inputs(o: &mut String, a: &Assessment, v: &View, ctx: ReportContext) {
     }
     o.push_str("</tbody>\n</table>\n");
 
+    o.push_str("</section>\n");
+}
+
+/// The basis thickness of every course at every survey (what the rates are made of).
+fn survey_table(o: &mut String, a: &Assessment, f: &Fmt) {
+    let t = &a.tank;
+    let tu = f.tu();
     let _ = writeln!(
         o,
-        "<table class=\"num\">\n<caption>Readings of each course at each survey (the basis \
-         thickness is the {} reading)</caption>\n<thead><tr><th>Course</th><th>Survey</th>\
+        "<table class=\"num\">\n<caption>Readings of each course at each survey: the basis \
+         thickness is the {} reading</caption>\n<thead><tr><th>Course</th><th>Survey</th>\
          <th>Readings</th><th>Least</th><th>Mean</th><th>s</th><th>COV</th><th>Basis</th></tr>\n\
          <tr class=\"units\"><th></th><th></th><th></th><th>{tu}</th><th>{tu}</th><th>{tu}</th>\
          <th></th><th>{tu}</th></tr></thead>\n<tbody>",
@@ -450,18 +459,15 @@ fn inputs(o: &mut String, a: &Assessment, v: &View, ctx: ReportContext) {
                 c.number,
                 sv.date,
                 sv.count,
-                n(v.thk(sv.minimum), td),
-                n(v.thk(sv.mean), td),
-                sv.std_dev.map_or("-".into(), |s| n(
-                    v.thk(crate::calc::units::Thickness(s)),
-                    td + 1
-                )),
+                f.thk(sv.minimum.0),
+                f.thk(sv.mean.0),
+                sv.std_dev.map_or("-".into(), |s| f.thk_result(s)),
                 sv.cov.map_or("-".into(), |c| n(c, 3)),
-                n(v.thk(sv.basis), td)
+                f.thk(sv.basis.0)
             );
         }
     }
-    o.push_str("</tbody>\n</table>\n</section>\n");
+    o.push_str("</tbody>\n</table>\n");
 }
 
 fn stress_number(x: f64, u: UnitSystem) -> String {
@@ -713,7 +719,7 @@ impl Fmt {
     fn rate(&self, x: f64) -> String {
         match self.u {
             UnitSystem::Si => n(x, 4),
-            UnitSystem::Usc => n(x, 5),
+            UnitSystem::Usc => n(x, 6),
         }
     }
     fn lu(&self) -> &'static str {
@@ -752,6 +758,7 @@ fn derivations(o: &mut String, a: &Assessment) {
         f.tu(),
         f.su()
     );
+    survey_table(o, a, &f);
     for c in &a.courses {
         course_working(o, a, c, &f);
     }
@@ -1383,7 +1390,8 @@ table.sign th { text-align: left; font-weight: normal; color: var(--muted); widt
 table.sign td { border-bottom: 1px solid var(--ink); height: 2.2em; }
 table.sign td.signature { height: 4em; }
 @media (max-width: 700px) { dl.answers { grid-template-columns: 1fr; } }
-@page { size: A4; margin: 15mm 14mm 16mm; @bottom-right { content: "page " counter(page) " of " counter(pages); font-size: 9pt; color: #5b6570; } }
+@page { size: A4; margin: 15mm 14mm 16mm;
+  @bottom-right { content: "page " counter(page) " of " counter(pages); font: 8pt "DejaVu Sans", Verdana, sans-serif; color: #5b6570; } }
 @media print {
   body { font-size: 10pt; }
   header.masthead, main { max-width: none; padding: 0; }
@@ -1394,7 +1402,9 @@ table.sign td.signature { height: 4em; }
   h2, h3 { break-after: avoid; page-break-after: avoid; }
   table { font-size: 8.5pt; }
   thead { display: table-header-group; }
-  tr, .verdict, dl.answers div, article.course-calc, .signatures, #sign-off { break-inside: avoid; page-break-inside: avoid; }
+  tr, .verdict, dl.answers div, article.course-calc, .signatures, #sign-off, table.results,
+  table.kv, table.files, table.sign { break-inside: avoid; page-break-inside: avoid; }
+  caption { break-after: avoid; page-break-after: avoid; }
   #charts, #working { break-before: page; page-break-before: always; }
   figure { break-inside: avoid; page-break-inside: avoid; margin: 0 0 8mm; }
   #charts figure + figure { break-before: page; page-break-before: always; }

@@ -2,10 +2,12 @@
 //! topic; `support` holds the small builder used everywhere.
 
 mod assess;
+mod browser;
 mod check;
 mod errors;
 mod fill_height;
 mod properties;
 mod reference;
+mod report;
 mod samples;
 mod support;

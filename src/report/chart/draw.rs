@@ -117,6 +117,9 @@ pub struct Marker {
     pub filled: bool,
     /// Half-width, logical pixels.
     pub size: f64,
+    /// An outlined marker hides what lies under it (white inside); off for dense
+    /// point clouds, where overlapping outlines should stay visible.
+    pub knockout: bool,
 }
 
 impl Marker {
@@ -127,6 +130,14 @@ impl Marker {
             color,
             filled,
             size,
+            knockout: true,
+        }
+    }
+    /// The same marker, outlined without a white inside.
+    pub const fn see_through(self) -> Self {
+        Marker {
+            knockout: false,
+            ..self
         }
     }
 }
@@ -146,7 +157,12 @@ pub fn course_look(index: usize) -> (Stroke, Marker) {
     let color = COLORS[index % COLORS.len()];
     (
         Stroke::new(color, 2.0, DASHES[index % DASHES.len()]),
-        Marker::new(SHAPES[index % SHAPES.len()], color, index.is_multiple_of(2), 4.5),
+        Marker::new(
+            SHAPES[index % SHAPES.len()],
+            color,
+            index.is_multiple_of(2),
+            4.5,
+        ),
     )
 }
 
@@ -260,14 +276,18 @@ impl<DB: DrawingBackend> Pen<'_, DB> {
             stroke_width: self.s(1.6).max(1) as u32,
         };
         let fill = if m.filled {
-            m.color.filled()
+            Some(m.color.filled())
+        } else if m.knockout {
+            Some(WHITE.filled())
         } else {
-            WHITE.filled()
+            None
         };
         let corners: Vec<(i32, i32)> = match m.shape {
             Shape::Circle => {
                 let r = r as i32;
-                self.root.draw(&Circle::new(at, r, fill))?;
+                if let Some(fill) = fill {
+                    self.root.draw(&Circle::new(at, r, fill))?;
+                }
                 return self.root.draw(&Circle::new(at, r, outline));
             }
             Shape::Cross => {
@@ -294,7 +314,9 @@ impl<DB: DrawingBackend> Pen<'_, DB> {
                 pt(-r, 0.0),
             ],
         };
-        self.root.draw(&Polygon::new(corners.clone(), fill))?;
+        if let Some(fill) = fill {
+            self.root.draw(&Polygon::new(corners.clone(), fill))?;
+        }
         let mut closed = corners.clone();
         closed.push(corners[0]);
         self.root.draw(&PathElement::new(closed, outline))

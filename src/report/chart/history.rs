@@ -22,7 +22,7 @@ const PANEL_H: f64 = 285.0;
 const CAPTION_H: f64 = 28.0;
 const SIDE: f64 = 10.0;
 
-const READING: Marker = Marker::new(Shape::Circle, LIGHT, false, 2.6);
+const READING: Marker = Marker::new(Shape::Circle, LIGHT, false, 2.6).see_through();
 const BASIS: Marker = Marker::new(Shape::Circle, INK, true, 4.2);
 const BASIS_LINE: Stroke = Stroke::new(INK, 1.3, Dash::Solid);
 const INITIAL: Marker = Marker::new(Shape::Square, INK, false, 4.5);
@@ -75,7 +75,12 @@ impl History<'_> {
             None,
         ));
         e.push(LegendEntry::line("t_min", T_MIN, None));
-        e.push(LegendEntry::marker("projection meets t_min", MEETS));
+        if s.courses
+            .iter()
+            .any(|c| c.projection.is_some_and(|p| p.reaches_t_min.is_some()))
+        {
+            e.push(LegendEntry::marker("projection meets t_min", MEETS));
+        }
         e.push(LegendEntry::line("nominal thickness", NOMINAL, None));
         e
     }

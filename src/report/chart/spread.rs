@@ -23,7 +23,7 @@ const LEFT: f64 = 96.0;
 /// Rows of dots under the box, so that equal readings do not hide each other.
 const LANES: usize = 4;
 
-const DOT: Marker = Marker::new(Shape::Circle, GREY, false, 3.0);
+const DOT: Marker = Marker::new(Shape::Circle, GREY, false, 3.0).see_through();
 const SUSPECT: Marker = Marker::new(Shape::Triangle, VERMILLION, true, 5.5);
 const BOX: Stroke = Stroke::new(DEEP_BLUE, 1.8, Dash::Solid);
 const BOX_FILL: RGBColor = RGBColor(221, 236, 247);
@@ -153,24 +153,28 @@ impl Figure for Spread<'_> {
                 INK,
                 (HPos::Right, VPos::Center),
             )?;
-            let summary = match c.condition.as_ref() {
-                None => "no readings".to_string(),
+            let mut lines: Vec<(String, RGBColor)> = Vec::new();
+            match c.condition.as_ref() {
+                None => lines.push(("no readings".to_string(), INK)),
                 Some(k) => {
                     let date = k.latest.date.format("%Y-%m-%d");
-                    let mut t = format!("{} readings, {date}", k.latest.count);
-                    if suspects > 0 {
-                        t.push_str(&format!("\n{suspects} suspect"));
+                    lines.push((format!("{} readings, {date}", k.latest.count), INK));
+                    if let Some(cov) = k.latest.cov {
+                        lines.push((format!("COV {cov:.3}"), GREY));
                     }
-                    t
+                    if suspects > 0 {
+                        lines.push((format!("{suspects} suspect"), VERMILLION));
+                    }
                 }
-            };
+            }
             let (rx, ry) = m(x1, y);
-            for (j, line) in summary.lines().enumerate() {
+            let first = -9.0 * (lines.len() as f64 - 1.0);
+            for (j, (line, color)) in lines.iter().enumerate() {
                 pen.text_px(
                     line,
-                    (rx + pen.s(10.0), ry + pen.s(18.0 * j as f64 - 8.0)),
+                    (rx + pen.s(10.0), ry + pen.s(first + 18.0 * j as f64)),
                     SMALL_SIZE,
-                    if j == 0 { INK } else { VERMILLION },
+                    *color,
                     (HPos::Left, VPos::Center),
                 )?;
             }
