@@ -1412,3 +1412,19 @@ table.sign td.signature { height: 4em; }
   a { color: inherit; text-decoration: none; }
 }
 "#;
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The five characters HTML gives meaning to (HTML Living Standard, 13.1.2 and
+    /// 13.2.5.72 character references), in text and in quoted attribute values.
+    #[test]
+    fn escapes_markup() {
+        assert_eq!(
+            esc("<script>alert(1)</script> & \"x\" 'y'"),
+            "&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;x&quot; &#39;y&#39;"
+        );
+        assert_eq!(esc("Tänk 7 · 13.80 m"), "Tänk 7 · 13.80 m");
+    }
+}

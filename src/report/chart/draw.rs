@@ -603,6 +603,26 @@ mod tests {
         assert!((year_of(d(2024, 7, 1)) - (2024.0 + 182.0 / 366.0)).abs() < 1e-12);
     }
 
+    /// Short entries share a row; a long one spans the columns it needs; no entry
+    /// is wider than its cells.
+    #[test]
+    fn legend_grid() {
+        register_font().expect("font");
+        let e =
+            |label: &str| LegendEntry::marker(label, Marker::new(Shape::Circle, INK, true, 3.0));
+        let entries = [e("a"), e("b"), e("c"), e(&"long label ".repeat(8))];
+        let width = 900.0;
+        let g = legend_layout(&entries, width);
+        let col_w = width / g.cols as f64;
+        for (entry, &(col, _, span)) in entries.iter().zip(&g.cells) {
+            assert!(col + span <= g.cols);
+            let need = SAMPLE_W + SAMPLE_GAP + text_width(&entry.label, LABEL_SIZE) + ENTRY_GAP;
+            assert!(need <= col_w * span as f64 + 1e-9, "{}", entry.label);
+        }
+        assert_eq!(g.cells[0].1, 0);
+        assert!(g.rows >= 2, "the long entry needs a row of its own");
+    }
+
     #[test]
     fn font_is_embedded_and_measures() {
         register_font().expect("font");
