@@ -1408,7 +1408,7 @@ table.sign td.signature { height: 4em; }
   #charts, #working { break-before: page; page-break-before: always; }
   figure { break-inside: avoid; page-break-inside: avoid; margin: 0 0 8mm; }
   #charts figure + figure { break-before: page; page-break-before: always; }
-  svg.chart { border: none; max-height: 228mm; }
+  svg.chart { border: none; max-height: 95vh; }
   a { color: inherit; text-decoration: none; }
 }
 "#;
