@@ -45,7 +45,7 @@ pub enum ColorArg {
 #[command(
     name = "strake",
     version,
-    after_help = "Examples:\n  strake check sample-inspections/*\n  strake assess sample-inspections/kestrel-t12\n  strake fill-height sample-inspections/kestrel-t12 --sg 1.0 --years 10\n\nExit codes: 0 done, 1 bad input, 2 usage, 3 a course below t_min (with --fail-below-minimum).\nEvery result is a screening aid: it defers to the applicable code edition, local\nregulations and an authorized inspector's or qualified engineer's judgement."
+    after_help = "Examples:\n  strake check sample-inspections/*\n  strake assess sample-inspections/kestrel-t12\n  strake fill-height sample-inspections/kestrel-t12 --sg 1.0 --years 10\n  strake fleet sample-inspections\n\nExit codes: 0 done, 1 bad input, 2 usage, 3 a course below t_min (with --fail-below-minimum).\nEvery result is a screening aid: it defers to the applicable code edition, local\nregulations and an authorized inspector's or qualified engineer's judgement."
 )]
 pub struct Cli {
     /// What to do.
@@ -84,6 +84,26 @@ pub enum Command {
         after_help = "Example:\n  strake fill-height sample-inspections/kestrel-t12 --sg 1.0 --sg 1.2 --years 10"
     )]
     FillHeight(FillHeightArgs),
+    /// Required course thicknesses for design or re-rating: one-foot and
+    /// variable-design-point methods side by side.
+    #[command(
+        after_help = "Examples:\n  strake required sample-inspections/kestrel-t12\n  strake required --diameter 80 --fill-height 19.2 --sg 0.9 --course-heights 2.4,2.4,2.4,2.4,2.4,2.4,2.4,2.4 --material A516-70 --corrosion-allowance 1.5"
+    )]
+    Required(RequiredArgs),
+    /// Assess every tank folder below a folder, in parallel, and list them by next due
+    /// date: governing course, remaining life, due dates, allowable fill height, status.
+    #[command(
+        after_help = "Examples:\n  strake fleet sample-inspections\n  strake fleet sample-inspections --format csv > plan.csv\n\nA folder that cannot be assessed is listed with its error and the others go on;\nthe exit code is then 1."
+    )]
+    Fleet(FleetArgs),
+}
+
+/// `strake fleet`.
+#[derive(Debug, Args)]
+pub struct FleetArgs {
+    /// The folder to search: every folder below it that holds a tank.toml is a tank.
+    #[arg(value_name = "DIR")]
+    pub dir: PathBuf,
 }
 
 /// `strake check`.
@@ -141,6 +161,71 @@ pub struct FillHeightArgs {
     /// thickness survey interval).
     #[arg(long, value_name = "N", value_parser = parse_years)]
     pub years: Option<f64>,
+}
+
+/// Unit system of an ad-hoc shell.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum SystemArg {
+    /// m, mm, MPa.
+    #[value(name = "si", alias = "SI")]
+    Si,
+    /// ft, in, psi.
+    #[value(name = "usc", alias = "USC")]
+    Usc,
+}
+
+/// `strake required`.
+#[derive(Debug, Args)]
+pub struct RequiredArgs {
+    /// A tank folder (its tank.toml); or give the shell with the options below.
+    #[arg(value_name = "TANK_DIR", required_unless_present = "diameter")]
+    pub dir: Option<PathBuf>,
+    /// Nominal diameter (m or ft, see --system).
+    #[arg(long, value_name = "D", value_parser = parse_positive, conflicts_with = "dir", requires_all = ["fill_height", "sg", "course_heights"])]
+    pub diameter: Option<f64>,
+    /// Design liquid level above the tank bottom.
+    #[arg(long, value_name = "H", value_parser = parse_positive)]
+    pub fill_height: Option<f64>,
+    /// Design specific gravity.
+    #[arg(long, value_name = "G", value_parser = parse_sg)]
+    pub sg: Option<f64>,
+    /// Course heights, bottom first, comma-separated.
+    #[arg(long, value_name = "H1,H2,...", value_delimiter = ',', value_parser = parse_positive)]
+    pub course_heights: Vec<f64>,
+    /// Plate grade of every course (a grade of the built-in table).
+    #[arg(long, value_name = "GRADE", value_parser = parse_grade)]
+    pub material: Option<&'static crate::calc::materials::Grade>,
+    /// Design stress S_d of every course, instead of the material's (MPa or psi).
+    #[arg(long, value_name = "S", value_parser = parse_positive)]
+    pub design_stress: Option<f64>,
+    /// Hydrostatic test stress S_t of every course, instead of the material's.
+    #[arg(long, value_name = "S", value_parser = parse_positive)]
+    pub test_stress: Option<f64>,
+    /// Design corrosion allowance of every course (mm or in).
+    #[arg(long, value_name = "CA", value_parser = parse_non_negative, default_value_t = 0.0)]
+    pub corrosion_allowance: f64,
+    /// Unit system of the numbers given.
+    #[arg(long, value_enum, default_value_t = SystemArg::Si)]
+    pub system: SystemArg,
+}
+
+fn parse_grade(s: &str) -> Result<&'static crate::calc::materials::Grade, String> {
+    crate::calc::materials::find_grade(s).ok_or_else(|| {
+        let names: Vec<&str> = crate::calc::materials::grade_names().collect();
+        format!(
+            "\"{s}\" is not in the built-in table; use one of {}",
+            names.join(", ")
+        )
+    })
+}
+
+fn parse_non_negative(s: &str) -> Result<f64, String> {
+    let v = parse_number(s)?;
+    if v >= 0.0 {
+        Ok(v)
+    } else {
+        Err(format!("{v} is negative"))
+    }
 }
 
 fn parse_date(s: &str) -> Result<NaiveDate, String> {

@@ -21,7 +21,8 @@ pub enum Outcome {
     Done,
     /// `--fail-below-minimum` and a course is below t_min: exit 3.
     BelowMinimum,
-    /// Some inputs had errors, already reported in the output (`check`): exit 1.
+    /// Some inputs had errors, already reported in the output (`check`, `fleet`):
+    /// exit 1.
     InputErrors,
 }
 
@@ -50,6 +51,9 @@ pub enum Error {
         /// Why.
         source: calc::assess::AssessError,
     },
+    /// The command line is inconsistent in a way clap cannot express (exit 2).
+    #[error("{0}")]
+    Usage(String),
     /// Rendering CSV failed.
     #[error("cannot render CSV: {0}")]
     Render(#[source] csv::Error),
@@ -62,6 +66,13 @@ pub enum Error {
 }
 
 impl Error {
+    /// The process exit code of this error.
+    pub fn code(&self) -> u8 {
+        match self {
+            Error::Usage(_) => 2,
+            _ => 1,
+        }
+    }
     /// True when standard output was closed by the reader (`strake ... | head`).
     pub fn is_broken_pipe(&self) -> bool {
         matches!(self, Error::Output(e) if e.kind() == std::io::ErrorKind::BrokenPipe)
@@ -75,5 +86,7 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::Check(a) => cmd::check::run(a, g),
         Command::Assess(a) => cmd::assess::run(a, g),
         Command::FillHeight(a) => cmd::fill_height::run(a, g),
+        Command::Required(a) => cmd::required::run(a, g),
+        Command::Fleet(a) => cmd::fleet::run(a, g),
     }
 }

@@ -9,7 +9,7 @@ fn main() -> ExitCode {
         Err(e) if e.is_broken_pipe() => ExitCode::SUCCESS,
         Err(e) => {
             eprintln!("error: {e}");
-            ExitCode::from(1)
+            ExitCode::from(e.code())
         }
     }
 }

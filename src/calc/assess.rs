@@ -2,35 +2,46 @@
 //! each course, then the tank-level verdict.
 //!
 //! Order of work (each step is a function of the modules beside this one):
-//! 1. group readings by course and survey date, reduce each group (survey.rs);
+//! 1. group readings by course and survey date, reduce each group (survey.rs); this
+//!    is done while the readings stream past (tally.rs), so that no reading is kept;
 //! 2. per course: S (stress.rs), t_min and H_max (shell.rs), rates (rates.rs),
 //!    remaining life, status and intervals (life.rs);
 //! 3. tank: the least UT and external intervals over courses with a known rate
 //!    (API 653 6.3), due dates from the latest survey, the governing course (least
 //!    remaining life, the lower course on a tie), the allowable liquid level now and
 //!    after the UT interval at each course's governing rate;
-//! 4. points: per-location rates and the hot spots (points.rs).
+//! 4. points: per-location rates and the hot spots (points.rs);
+//! 5. scanned areas (area.rs): the local-area rules with corrosion at the course's
+//!    governing rate over the tank's UT interval, and the level each area allows, which
+//!    joins the courses' in the tank's allowable level; per course, the extreme-value
+//!    estimate of its thinnest spot from its drops (extreme.rs) and the uniformity
+//!    check of its readings (COV, methods.md s.5).
 
 use std::collections::BTreeMap;
 
 use chrono::NaiveDate;
 
+use super::area::{AreaAssessment, FutureLoss, assess_area};
+use super::constants::COV_UNIFORM_LIMIT;
+use super::extreme::extreme_value;
 use super::life::{
     IntervalBasis, IntervalKind, RemainingLife, add_years, interval, remaining_life, status,
 };
-use super::points::{PointHistory, hot_spots, point_result};
+use super::points::{hot_spots, point_result_of};
 use super::rates::{BasisPoint, governing_rate, long_term, regression, short_term};
 use super::shell::{CourseLoad, max_fill_height, whole_course_t_min};
 use super::stress::in_service_stress;
-use super::survey::{CourseSurvey, course_survey, suspect_reading};
+use super::survey::{CourseSurvey, course_survey_of};
+use super::tally::Tally;
 use super::units::{Length, Thickness};
 use crate::calc::life::Status;
-use crate::model::reading::ReadingSet;
+use crate::model::reading::{PointNames, ReadingSet, ReadingSink};
 use crate::model::result::{
     Assessment, CourseCondition, CourseResult, FillLimit, Overrides, SurveyInfo, TankInterval,
     TankSummary,
 };
-use crate::model::tank::Tank;
+use crate::model::scan::Scan;
+use crate::model::tank::{Construction, Material, RateBasis, Tank};
 use crate::model::warning::{Shown, Warning};
 
 /// What-if values and the assessment date.
@@ -42,6 +53,9 @@ pub struct AssessOptions {
     pub specific_gravity: Option<f64>,
     /// Maximum liquid level instead of the tank file's.
     pub fill_height: Option<Length>,
+    /// Leave out the per-point results (`points`, `hot_spots` stay empty): for callers
+    /// that show none of them, such as the fleet table. Every other value is the same.
+    pub skip_points: bool,
 }
 
 /// Why a tank cannot be assessed at all.
@@ -60,12 +74,32 @@ pub enum AssessError {
     },
 }
 
-/// Assesses `tank` from `readings`.
+/// Assesses `tank` from `readings` (kept in memory; see [`assess_tally`] for readings
+/// gathered while they stream past).
 pub fn assess(
     tank: &Tank,
     readings: &ReadingSet,
     options: AssessOptions,
 ) -> Result<Assessment, AssessError> {
+    let mut tally = Tally::new(tank, options);
+    let mut names = PointNames::default();
+    for r in &readings.readings {
+        tally.accept(&r.borrow(&mut names));
+    }
+    assess_tally(tank, &tally, &names, &readings.files, &readings.scans)
+}
+
+/// Assesses `tank` from the tally of its readings; `names` holds the point ids the
+/// tally's keys stand for, `files` the files the readings came from (index =
+/// `Origin::file`), for the warnings; `all_scans` the tank's grid scans.
+pub fn assess_tally(
+    tank: &Tank,
+    tally: &Tally,
+    names: &PointNames,
+    files: &[String],
+    all_scans: &[Scan],
+) -> Result<Assessment, AssessError> {
+    let options = tally.options;
     let mut tank = tank.clone();
     let mut overrides = Overrides::default();
     if let Some(g) = options.specific_gravity {
@@ -79,15 +113,12 @@ pub fn assess(
     let units = tank.units;
     let mut warnings = Vec::new();
 
-    // 1. Readings up to the as-of date, grouped by course and date.
-    let earliest = readings.readings.iter().map(|r| r.date).min();
-    let used: Vec<_> = readings
-        .readings
-        .iter()
-        .filter(|r| options.as_of.is_none_or(|d| r.date <= d))
-        .collect();
-    let excluded = readings.readings.len() - used.len();
-    let latest_survey = match (used.iter().map(|r| r.date).max(), options.as_of, earliest) {
+    // 1. Readings up to the as-of date, grouped by course and date (tally.rs).
+    let latest_survey = match (
+        tally.groups().map(|g| g.date).max(),
+        options.as_of,
+        tally.earliest,
+    ) {
         (Some(d), _, _) => d,
         (None, Some(as_of), Some(earliest)) => {
             return Err(AssessError::NoneBeforeAsOf { as_of, earliest });
@@ -95,56 +126,51 @@ pub fn assess(
         _ => return Err(AssessError::NoReadings),
     };
     let as_of = options.as_of.unwrap_or(latest_survey);
-    if excluded > 0 {
+    if tally.excluded > 0 {
         warnings.push(Warning::ReadingsAfterAsOf {
-            count: excluded,
+            count: tally.excluded,
             as_of,
         });
     }
-    let mut by_course_date: BTreeMap<(u32, NaiveDate), Vec<f64>> = BTreeMap::new();
-    let mut by_point: BTreeMap<(u32, &str), PointHistory> = BTreeMap::new();
+    let locate = |origin: crate::model::reading::Origin| {
+        let file = files.get(origin.file as usize).map_or("?", String::as_str);
+        format!("{file}:{}", origin.line)
+    };
+    for s in &tally.suspects {
+        warnings.push(Warning::SuspectReading {
+            location: locate(s.origin),
+            course: s.course,
+            thickness: Shown::thickness(s.thickness, units),
+            nominal: Shown::thickness(s.nominal, units),
+            kind: s.kind,
+        });
+    }
     let mut per_date: BTreeMap<NaiveDate, usize> = BTreeMap::new();
-    for r in &used {
-        by_course_date
-            .entry((r.course, r.date))
-            .or_default()
-            .push(r.thickness.0);
-        *per_date.entry(r.date).or_default() += 1;
-        if let Some(id) = r.point.as_deref() {
-            let h = by_point
-                .entry((r.course, id))
-                .or_insert_with(|| PointHistory {
-                    point: id.to_string(),
-                    course: r.course,
-                    readings: Vec::new(),
-                    elevation: None,
-                    azimuth: None,
-                });
-            h.readings.push((r.date, r.thickness));
-            if h.readings.iter().all(|(d, _)| *d <= r.date) {
-                h.elevation = r.elevation.or(h.elevation);
-                h.azimuth = r.azimuth.or(h.azimuth);
-            }
-        }
-        if let Some(course) = tank.course(r.course)
-            && let Some(kind) = suspect_reading(r.thickness, course.nominal_thickness)
-        {
-            warnings.push(Warning::SuspectReading {
-                location: readings.locate(r.origin),
-                course: r.course,
-                thickness: Shown::thickness(r.thickness, units),
-                nominal: Shown::thickness(course.nominal_thickness, units),
-                kind,
-            });
-        }
+    for g in tally.groups() {
+        *per_date.entry(g.date).or_default() += g.stats.count();
     }
     let surveys = per_date
         .iter()
         .map(|(&date, &n)| SurveyInfo { date, readings: n })
         .collect();
 
+    // Scans up to the as-of date (all of them without --as-of).
+    let scans: Vec<_> = all_scans
+        .iter()
+        .filter(|s| options.as_of.is_none_or(|d| s.date <= d))
+        .collect();
+    let late_scans = all_scans.len() - scans.len();
+    if late_scans > 0 {
+        warnings.push(Warning::ScansAfterAsOf {
+            count: late_scans,
+            as_of,
+        });
+    }
+    let scanned = |course: u32| scans.iter().any(|s| s.course == course);
+
     // 2. Per course, everything that does not depend on the tank's interval.
     let mut courses: Vec<CourseResult> = Vec::with_capacity(tank.courses.len());
+    let mut loads: Vec<CourseLoad> = Vec::with_capacity(tank.courses.len());
     for course in &tank.courses {
         let stress = in_service_stress(units, tank.construction, course.number, &course.material);
         let e = tank.joint_efficiency_of(course);
@@ -157,9 +183,9 @@ pub fn assess(
             bottom_elevation: course.bottom_elevation,
         };
         let t_min = whole_course_t_min(load, tank.max_fill_height);
-        let history: Vec<CourseSurvey> = by_course_date
-            .range((course.number, NaiveDate::MIN)..=(course.number, NaiveDate::MAX))
-            .filter_map(|((_, date), values)| course_survey(*date, values, tank.thickness_basis))
+        let history: Vec<CourseSurvey> = tally
+            .course_groups(course.number)
+            .filter_map(|g| course_survey_of(g.date, &g.stats, tank.thickness_basis))
             .collect();
         let condition = history.last().copied().map(|latest| {
             let basis: Vec<BasisPoint> = history
@@ -172,7 +198,11 @@ pub fn assess(
             let lt = long_term(&basis, course.nominal_thickness, tank.in_service_since);
             let st = short_term(&basis);
             let reg = regression(&basis);
-            let rate = governing_rate(tank.rate_basis, lt.as_ref(), st.as_ref(), reg.as_ref());
+            let governing = governing_rate(tank.rate_basis, lt.as_ref(), st.as_ref(), reg.as_ref());
+            let (rate, rate_missing) = match governing {
+                Ok(r) => (Some(r), None),
+                Err(why) => (None, Some(why)),
+            };
             let n = rate.map(|r| r.value);
             let t_actual = latest.basis;
             let life = remaining_life(t_actual, t_min.value, n);
@@ -190,6 +220,7 @@ pub fn assess(
                 short_term: st,
                 regression: reg,
                 rate,
+                rate_missing,
                 remaining_life: life,
             }
         });
@@ -201,6 +232,40 @@ pub fn assess(
             &t_min,
             &mut warnings,
         );
+        let no_drops = super::extreme::Drops::default();
+        let latest_drops = condition
+            .as_ref()
+            .and_then(|k| tally.drops(course.number, k.latest.date))
+            .unwrap_or(&no_drops);
+        let extreme = extreme_value(
+            units,
+            tank.diameter,
+            course.height,
+            course.nominal_thickness,
+            latest_drops,
+        );
+        if let Some(k) = condition.as_ref() {
+            if let Some(cov) = k.latest.cov
+                && cov > COV_UNIFORM_LIMIT
+            {
+                warnings.push(Warning::NonUniform {
+                    course: course.number,
+                    cov,
+                    scanned: scanned(course.number),
+                });
+            }
+            if let Ok(ev) = &extreme
+                && ev.estimated_least.0 < t_min.value.0
+            {
+                warnings.push(Warning::ExtremeBelowMinimum {
+                    course: course.number,
+                    estimate: Shown::thickness(ev.estimated_least, units),
+                    t_min: Shown::thickness(t_min.value, units),
+                    scanned: scanned(course.number),
+                });
+            }
+        }
+        loads.push(load);
         courses.push(CourseResult {
             number: course.number,
             bottom_elevation: course.bottom_elevation,
@@ -210,6 +275,7 @@ pub fn assess(
             joint_efficiency: e,
             t_min,
             condition,
+            extreme_value: extreme,
         });
     }
 
@@ -245,7 +311,7 @@ pub fn assess(
     }
     let governing = measured
         .iter()
-        .filter(|(_, k)| k.remaining_life != RemainingLife::Unknown)
+        .filter(|(_, k)| matches!(k.remaining_life, RemainingLife::Years(_)))
         .min_by(|a, b| {
             a.1.remaining_life
                 .sort_key()
@@ -262,8 +328,61 @@ pub fn assess(
         }
         best
     };
-    let max_fill_now = least(&|k| Some(k.max_fill_height.value));
-    let max_fill_next = least(&|k| k.max_fill_height_next.map(|h| h.value));
+    let mut max_fill_now = least(&|k| Some(k.max_fill_height.value));
+    let mut max_fill_next = least(&|k| k.max_fill_height_next.map(|h| h.value));
+
+    // 5. Scanned areas: rules with corrosion to the next inspection; their levels join
+    // the courses' (a tie stays with the course).
+    let mut areas: Vec<AreaAssessment> = Vec::new();
+    for scan in &scans {
+        let Some(i) = tank.courses.iter().position(|c| c.number == scan.course) else {
+            continue;
+        };
+        let rate = courses[i].condition.as_ref().and_then(|k| k.rate_value());
+        let future = FutureLoss::new(rate, ut_interval.years);
+        let Some(area) = assess_area(scan, loads[i], tank.max_fill_height, future) else {
+            continue;
+        };
+        if rate.is_none() {
+            warnings.push(Warning::AreaNoRate {
+                file: scan.file.clone(),
+                course: scan.course,
+            });
+        }
+        if area.t1.is_none() {
+            warnings.push(Warning::AreaNoWindow {
+                file: scan.file.clone(),
+                rows_per_window: area.windows.rows_per_window,
+            });
+        }
+        areas.push(area);
+    }
+    let mut max_fill_area = None;
+    let mut max_fill_next_area = None;
+    for (i, a) in areas.iter().enumerate() {
+        let level = a.max_fill_height.calc.value;
+        if max_fill_now.is_none_or(|b| level.0 < b.level.0) {
+            max_fill_now = Some(FillLimit {
+                level,
+                course: a.scan.course,
+            });
+            max_fill_area = Some(i);
+        }
+        match (a.max_fill_height_next, max_fill_next) {
+            (None, _) => {
+                max_fill_next = None;
+                max_fill_next_area = None;
+            }
+            (Some(n), Some(b)) if n.calc.value.0 < b.level.0 => {
+                max_fill_next = Some(FillLimit {
+                    level: n.calc.value,
+                    course: a.scan.course,
+                });
+                max_fill_next_area = Some(i);
+            }
+            _ => {}
+        }
+    }
     let no_rate: Vec<u32> = measured
         .iter()
         .filter(|(_, k)| k.rate.is_none())
@@ -286,18 +405,25 @@ pub fn assess(
             .filter(|(_, k)| k.status == Status::BelowMinimum)
             .map(|(n, _)| *n)
             .collect(),
+        max_fill_height_area: max_fill_area,
+        max_fill_height_next_area: max_fill_next_area,
     };
 
-    // 4. Points.
-    let points: Vec<_> = by_point
-        .values_mut()
-        .filter_map(|h| {
-            h.readings.sort_by_key(|(d, _)| *d);
-            let t_min = courses.iter().find(|c| c.number == h.course)?.t_min.value;
-            point_result(h, t_min)
+    // 4. Points (unless the caller shows none).
+    let name = |k: crate::model::reading::PointKey| names.name(k).unwrap_or("");
+    let mut spans: Vec<_> = tally.points().iter().map(|(k, p)| (name(*k), p)).collect();
+    // (course, id) is unique: an unstable sort gives the one order.
+    spans.sort_unstable_by(|a, b| (a.1.course, a.0).cmp(&(b.1.course, b.0)));
+    let points: Vec<_> = spans
+        .into_iter()
+        .filter_map(|(id, p)| {
+            let t_min = courses.iter().find(|c| c.number == p.course)?.t_min.value;
+            Some(point_result_of(id.to_string(), p, t_min))
         })
         .collect();
     let hot = hot_spots(&points);
+    let hydrotest = super::hydrotest::hydrotest(&tank, &courses);
+    let variable_point = super::hydrotest::variable_point_comparison(&tank, &courses);
 
     Ok(Assessment {
         tank,
@@ -310,6 +436,9 @@ pub fn assess(
         points,
         hot_spots: hot,
         warnings,
+        hydrotest,
+        variable_point,
+        areas,
     })
 }
 
@@ -353,6 +482,13 @@ fn course_warnings(
     out: &mut Vec<Warning>,
 ) {
     let units = tank.units;
+    if tank.construction == Construction::Welded
+        && tank
+            .course(number)
+            .is_some_and(|c| c.material == Material::NotGiven)
+    {
+        out.push(Warning::MaterialNotGiven { course: number });
+    }
     let Some(k) = condition else {
         out.push(Warning::NoReadings { course: number });
         return;
@@ -365,16 +501,20 @@ fn course_warnings(
         });
     }
     match (&k.rate, &k.long_term) {
-        (None, _) => out.push(Warning::NoRate { course: number }),
-        (Some(r), lt) => {
-            if let Some(reason) = r.fallback {
-                out.push(Warning::RateBasisFallback {
+        (None, _) => match (k.rate_missing, tank.rate_basis) {
+            (Some(reason), basis)
+                if basis != RateBasis::Conservative
+                    && (k.long_term.is_some() || k.short_term.is_some()) =>
+            {
+                out.push(Warning::RateBasisUnavailable {
                     course: number,
-                    requested: r.requested,
-                    used: r.used,
+                    basis,
                     reason,
-                });
+                })
             }
+            _ => out.push(Warning::NoRate { course: number }),
+        },
+        (Some(r), lt) => {
             if r.clamped() {
                 out.push(Warning::ApparentThickening {
                     course: number,

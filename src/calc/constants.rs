@@ -72,6 +72,16 @@ pub const LOWER_TENSILE_FACTOR: f64 = 0.429;
 pub const UPPER_YIELD_FACTOR: f64 = 0.88;
 /// Tensile factor of the upper courses (API 653 table 4.1, from memory).
 pub const UPPER_TENSILE_FACTOR: f64 = 0.472;
+/// Hydrotest stress S_t in service, lower two courses: min(0.88 Y, 0.472 T): yield
+/// factor (API 653 4.3.3.2 / table 4.1, from memory).
+pub const HYDROTEST_LOWER_YIELD_FACTOR: f64 = 0.88;
+/// Hydrotest tensile factor, lower two courses (API 653 table 4.1, from memory).
+pub const HYDROTEST_LOWER_TENSILE_FACTOR: f64 = 0.472;
+/// Hydrotest stress S_t in service, other courses: min(0.9 Y, 0.519 T): yield factor
+/// (API 653 table 4.1, from memory).
+pub const HYDROTEST_UPPER_YIELD_FACTOR: f64 = 0.9;
+/// Hydrotest tensile factor, other courses (API 653 table 4.1, from memory).
+pub const HYDROTEST_UPPER_TENSILE_FACTOR: f64 = 0.519;
 /// Cap on the tensile strength used, psi (API 653 table 4.1 note, from memory).
 pub const TENSILE_CAP_PSI: f64 = 80_000.0;
 /// Cap on the tensile strength used, MPa (API 653 table 4.1 note, from memory).
@@ -151,6 +161,186 @@ pub const MAX_SPECIFIC_GRAVITY: f64 = 3.0;
 
 /// A rate of zero, for readability.
 pub const NO_LOSS: Rate = Rate(0.0);
+
+// ---------------------------------------------------------------------------------
+// New-construction design (methods.md s.2 and s.7; API 650 5.6, from memory)
+// ---------------------------------------------------------------------------------
+
+/// Design stress S_d = min(2/3 Y, 2/5 T): yield factor (API 650 5.6.2.1 table basis,
+/// from memory).
+pub const DESIGN_YIELD_FACTOR: f64 = 2.0 / 3.0;
+/// Design stress tensile factor 2/5 (API 650 5.6.2.1, from memory).
+pub const DESIGN_TENSILE_FACTOR: f64 = 2.0 / 5.0;
+/// Hydrostatic test stress S_t = min(3/4 Y, 3/7 T): yield factor (API 650 5.6.2.2,
+/// from memory).
+pub const TEST_YIELD_FACTOR: f64 = 3.0 / 4.0;
+/// Hydrostatic test stress tensile factor 3/7 (API 650 5.6.2.2, from memory).
+pub const TEST_TENSILE_FACTOR: f64 = 3.0 / 7.0;
+/// Largest diameter for the one-foot method, m (API 650 5.6.3.1).
+pub const ONE_FOOT_MAX_DIAMETER_M: f64 = 61.0;
+/// Largest diameter for the one-foot method, ft (API 650 5.6.3.1).
+pub const ONE_FOOT_MAX_DIAMETER_FT: f64 = 200.0;
+/// Minimum nominal shell thickness by diameter, SI: (diameter below which it applies,
+/// m; thickness, mm). D < 15 m: 5 mm; 15 to < 36 m: 6 mm; 36 to 60 m: 8 mm; over
+/// 60 m: 10 mm (API 650 5.6.1.1, from memory).
+pub const MIN_NOMINAL_SI: [(f64, f64); 4] =
+    [(15.0, 5.0), (36.0, 6.0), (60.0, 8.0), (f64::INFINITY, 10.0)];
+/// Minimum nominal shell thickness by diameter, USC: D < 50 ft: 3/16 in; 50 to < 120 ft:
+/// 1/4 in; 120 to 200 ft: 5/16 in; over 200 ft: 3/8 in (API 650 5.6.1.1, from memory).
+pub const MIN_NOMINAL_USC: [(f64, f64); 4] = [
+    (50.0, 3.0 / 16.0),
+    (120.0, 0.25),
+    (200.0, 5.0 / 16.0),
+    (f64::INFINITY, 0.375),
+];
+
+// Variable-design-point method (API 650 5.6.4, from memory; methods.md s.7).
+
+/// Bottom course: t1 = (1.06 - k D/H sqrt(H G / S)) (one-foot coefficient H D G / S);
+/// k = 0.0696 in SI (D, H in m, S in MPa).
+pub const VDP_BOTTOM_K_SI: f64 = 0.0696;
+/// The same factor in USC (D, H in ft, S in psi).
+pub const VDP_BOTTOM_K_USC: f64 = 0.463;
+/// The constant term 1.06 of the bottom-course formula.
+pub const VDP_BOTTOM_CONSTANT: f64 = 1.06;
+/// Applicability: L / H <= 1000/6 with L = sqrt(500 D t) in mm, H in m (SI).
+pub const VDP_RATIO_LIMIT_SI: f64 = 1000.0 / 6.0;
+/// Applicability in USC: L / H <= 2 with L = sqrt(6 D t) in in, H in ft.
+pub const VDP_RATIO_LIMIT_USC: f64 = 2.0;
+/// L = sqrt(factor D t): 500 in SI (D m, t mm -> L mm).
+pub const VDP_L_FACTOR_SI: f64 = 500.0;
+/// L = sqrt(factor D t): 6 in USC (D ft, t in -> L in).
+pub const VDP_L_FACTOR_USC: f64 = 6.0;
+/// Second course: ratio h1 / sqrt(r t1) at or below which t2 = t1.
+pub const VDP_SECOND_LOW: f64 = 1.375;
+/// Second course: ratio at or above which t2 = t2a.
+pub const VDP_SECOND_HIGH: f64 = 2.625;
+/// Second course interpolation t2 = t2a + (t1 - t2a)(2.1 - h1 / (1.25 sqrt(r t1))).
+pub const VDP_SECOND_A: f64 = 2.1;
+/// The 1.25 of the interpolation.
+pub const VDP_SECOND_B: f64 = 1.25;
+/// Upper courses: x1 = 0.61 sqrt(r t_u) + c1 C H.
+pub const VDP_X1_ROOT: f64 = 0.61;
+/// x1's head factor: 320 in SI (x mm, H m).
+pub const VDP_X1_HEAD_SI: f64 = 320.0;
+/// x1's head factor: 3.84 in USC (x in, H ft).
+pub const VDP_X1_HEAD_USC: f64 = 3.84;
+/// x2 = c2 C H: 1000 in SI.
+pub const VDP_X2_HEAD_SI: f64 = 1000.0;
+/// x2 = c2 C H: 12 in USC.
+pub const VDP_X2_HEAD_USC: f64 = 12.0;
+/// x3 = 1.22 sqrt(r t_u).
+pub const VDP_X3_ROOT: f64 = 1.22;
+/// Most iterations of the upper-course design point (API 650 says two or three
+/// usually suffice).
+pub const VDP_MAX_ITERATIONS: usize = 100;
+/// The iteration stops when t_x changes by less than this, in thickness units
+/// relative to t_x.
+pub const VDP_TOLERANCE: f64 = 1e-9;
+// Locally thinned areas from grid scans (methods.md s.3, s.4, s.5; API 653 4.3.2,
+// from memory of the clauses)
+// ---------------------------------------------------------------------------------
+
+/// Coefficient of the averaging length in its USC printed form, L = 3.7 sqrt(D t2)
+/// with D in ft, t2 in in and L in in (API 653 4.3.2.1, from memory).
+pub const AVERAGING_COEFFICIENT_USC: f64 = 3.7;
+/// Coefficient of the averaging length with D and t2 in one unit, L = 1.068 sqrt(D t2)
+/// (methods.md s.5: 3.7 / sqrt(12 in/ft) = 1.0681, printed rounded to 1.068); used for
+/// SI with D in mm.
+pub const AVERAGING_COEFFICIENT_CONSISTENT: f64 = 1.068;
+/// Longest averaging length, in (API 653 4.3.2.1: "L <= 40 in", from memory).
+pub const AVERAGING_LENGTH_CAP_IN: f64 = 40.0;
+/// Longest averaging length, mm (methods.md s.5: 1000 mm in SI; 40 in is 1016 mm, the
+/// SI edition rounds it down).
+pub const AVERAGING_LENGTH_CAP_MM: f64 = 1000.0;
+/// t2 must be at least this fraction of t_min (API 653 4.3.2.1, "60 % of t_min", from
+/// memory; methods.md s.5).
+pub const T2_FRACTION_OF_T_MIN: f64 = 0.6;
+/// A pit may leave no less than this fraction of t_min (API 653 4.3.2.2 a, "one-half
+/// t_min exclusive of the corrosion allowance", from memory; methods.md s.5).
+pub const PIT_FRACTION_OF_T_MIN: f64 = 0.5;
+/// Most pit length along a vertical line in one span, in (API 653 4.3.2.2 b, "2 in in
+/// an 8 in length", from memory).
+pub const PIT_LENGTH_LIMIT_IN: f64 = 2.0;
+/// The span of that rule, in (API 653 4.3.2.2 b, from memory).
+pub const PIT_SPAN_IN: f64 = 8.0;
+/// Most pit length along a vertical line in one span, mm (methods.md s.5: 50 mm in
+/// 200 mm, the SI form of 2 in in 8 in).
+pub const PIT_LENGTH_LIMIT_MM: f64 = 50.0;
+/// The span of that rule, mm (methods.md s.5).
+pub const PIT_SPAN_MM: f64 = 200.0;
+/// An averaging window is used only when at least this fraction of its cells holds a
+/// valid reading (not empty, not a pit); this project's rule, so that a mean is never
+/// taken over a few scattered cells.
+pub const WINDOW_MIN_VALID_FRACTION: f64 = 0.5;
+/// Relative tolerance of every "at least" / "at most" comparison of the local-area
+/// rules, so that a value equal to its limit on paper passes despite binary rounding
+/// (this project's rule).
+pub const RULE_RELATIVE_TOLERANCE: f64 = 1e-9;
+
+/// A local-area rule's two limits in one unit system.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct LocalAreaForm {
+    /// Coefficient of L (3.7 USC with D in ft; 1.068 SI with D in mm).
+    pub averaging_coefficient: f64,
+    /// Cap of L (40 in, 1000 mm).
+    pub averaging_cap: Thickness,
+    /// Most pit length in one span (2 in, 50 mm).
+    pub pit_length_limit: Thickness,
+    /// The span (8 in, 200 mm).
+    pub pit_span: Thickness,
+}
+
+impl LocalAreaForm {
+    /// The form for `units`.
+    pub fn of(units: UnitSystem) -> Self {
+        match units {
+            UnitSystem::Si => LocalAreaForm {
+                averaging_coefficient: AVERAGING_COEFFICIENT_CONSISTENT,
+                averaging_cap: Thickness(AVERAGING_LENGTH_CAP_MM),
+                pit_length_limit: Thickness(PIT_LENGTH_LIMIT_MM),
+                pit_span: Thickness(PIT_SPAN_MM),
+            },
+            UnitSystem::Usc => LocalAreaForm {
+                averaging_coefficient: AVERAGING_COEFFICIENT_USC,
+                averaging_cap: Thickness(AVERAGING_LENGTH_CAP_IN),
+                pit_length_limit: Thickness(PIT_LENGTH_LIMIT_IN),
+                pit_span: Thickness(PIT_SPAN_IN),
+            },
+        }
+    }
+}
+
+// ---------------------------------------------------------------------------------
+// Extreme values for partial coverage (methods.md s.8; ASTM G16 practice, from memory)
+// ---------------------------------------------------------------------------------
+
+/// Euler-Mascheroni constant (mathematics): the mean of the standard Gumbel
+/// distribution, used by the method of moments (u = mean - gamma a).
+pub const EULER_GAMMA: f64 = statrs::consts::EULER_MASCHERONI;
+/// Width of the strip of shell a drop's readings stand for, m: the block area is this
+/// width times the course height (this project's convention, not from a standard:
+/// +/- 0.15 m either side of the drop line, the band an inspector looks over when
+/// placing the probe).
+pub const DROP_STRIP_WIDTH_M: f64 = 0.3;
+/// The same width in ft (this project's convention).
+pub const DROP_STRIP_WIDTH_FT: f64 = 1.0;
+/// Fewest blocks for a fit: with two parameters, four maxima leave two degrees of
+/// freedom to see whether they lie on a line of the Gumbel plot (this project's floor;
+/// common practice asks for more).
+pub const EXTREME_MIN_BLOCKS: usize = 4;
+/// Most Newton steps of the maximum-likelihood fit (converges in a handful).
+pub const GUMBEL_ML_MAX_ITERATIONS: usize = 100;
+/// Relative step at which the maximum-likelihood iteration stops.
+pub const GUMBEL_ML_RELATIVE_STEP: f64 = 1e-12;
+
+/// Drop strip width in the length unit of `units`.
+pub fn drop_strip_width(units: UnitSystem) -> Length {
+    match units {
+        UnitSystem::Si => Length(DROP_STRIP_WIDTH_M),
+        UnitSystem::Usc => Length(DROP_STRIP_WIDTH_FT),
+    }
+}
 
 // ---------------------------------------------------------------------------------
 // Chart projections (this project's presentation choices, not a method)

@@ -3,9 +3,13 @@
 //!
 //! Source: API 653 4.3.3.1 inverted (methods.md s.4):
 //! H_max = S E t / (4.9 D G) + 0.3 + z_bottom   [USC: 2.6, 1 ft], least over courses,
-//! with t = t_actual now, and t_actual - N x years later.
+//! with t = t_actual now, and t_actual - N x years later; and for each scanned area its
+//! local form (area.rs, local.rs): H_max = S E t' / (f 4.9 D G) + z, least over its
+//! windows, t2 and its least pit, with t' the thickness now or less N x years.
 
+use super::area::{AreaLimit, area_fill_limit};
 use super::shell::{CourseLoad, FillHeightCalc, max_fill_height};
+use super::units::Thickness;
 use crate::model::result::{Assessment, FillLimit};
 
 /// One course's limits in one scenario.
@@ -17,6 +21,17 @@ pub struct CourseFill {
     pub now: FillHeightCalc,
     /// Limit after the years (None without a rate).
     pub later: Option<FillHeightCalc>,
+}
+
+/// One scanned area's limits in one scenario.
+#[derive(Debug, Clone, PartialEq)]
+pub struct AreaFill {
+    /// Index into `Assessment::areas`.
+    pub area: usize,
+    /// Limit now.
+    pub now: AreaLimit,
+    /// Limit after the years (None without a rate).
+    pub later: Option<AreaLimit>,
 }
 
 /// One specific gravity.
@@ -32,6 +47,12 @@ pub struct FillScenario {
     pub now: Option<FillLimit>,
     /// Least over courses later; None when any measured course lacks a rate.
     pub later: Option<FillLimit>,
+    /// Per scanned area.
+    pub areas: Vec<AreaFill>,
+    /// The area that sets `now` (None when a course does).
+    pub now_area: Option<usize>,
+    /// The area that sets `later`.
+    pub later_area: Option<usize>,
 }
 
 fn least(items: impl Iterator<Item = Option<(f64, u32)>>) -> Option<FillLimit> {
@@ -72,18 +93,58 @@ pub fn fill_scenarios(assessment: &Assessment, other_sgs: &[f64], years: f64) ->
                     })
                 })
                 .collect();
-            let now = least(courses.iter().map(|c| Some((c.now.value.0, c.course))));
-            let later = least(
+            let mut now = least(courses.iter().map(|c| Some((c.now.value.0, c.course))));
+            let mut later = least(
                 courses
                     .iter()
                     .map(|c| c.later.map(|l| (l.value.0, c.course))),
             );
+            let areas: Vec<AreaFill> = assessment
+                .areas
+                .iter()
+                .enumerate()
+                .filter_map(|(i, a)| {
+                    Some(AreaFill {
+                        area: i,
+                        now: area_fill_limit(a, g, Thickness(0.0))?,
+                        later: a.future.rate.and_then(|n| {
+                            area_fill_limit(a, g, Thickness(n.0.max(0.0) * years.max(0.0)))
+                        }),
+                    })
+                })
+                .collect();
+            let (mut now_area, mut later_area) = (None, None);
+            for f in &areas {
+                let course = assessment.areas[f.area].scan.course;
+                let level = f.now.calc.value;
+                if now.is_none_or(|b| level.0 < b.level.0) {
+                    now = Some(FillLimit { level, course });
+                    now_area = Some(f.area);
+                }
+                match (f.later, later) {
+                    (None, _) => {
+                        later = None;
+                        later_area = None;
+                    }
+                    (Some(l), Some(b)) if l.calc.value.0 < b.level.0 => {
+                        later = Some(FillLimit {
+                            level: l.calc.value,
+                            course,
+                        });
+                        later_area = Some(f.area);
+                    }
+                    _ => {}
+                }
+            }
             FillScenario {
                 specific_gravity: g,
                 stored_product,
                 courses,
                 now,
                 later,
+                areas,
+                now_area,
+                later_area,
             }
         })
         .collect()

@@ -33,25 +33,92 @@ pub struct PointHistory {
     pub azimuth: Option<f64>,
 }
 
+/// What the point method needs of one point: its earliest and latest readings and
+/// how many dated readings it has. Gathered one reading at a time with [`PointSpan::add`],
+/// so a point's readings need not be kept.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PointSpan {
+    /// Course.
+    pub course: u32,
+    /// Number of dated readings.
+    pub surveys: usize,
+    /// Earliest date and its reading (the first seen among equal dates).
+    pub first: (NaiveDate, Thickness),
+    /// Latest date and its reading (the last seen among equal dates).
+    pub last: (NaiveDate, Thickness),
+    /// Elevation of the latest reading that gives one.
+    pub elevation: Option<Length>,
+    /// Azimuth of the latest reading that gives one.
+    pub azimuth: Option<f64>,
+}
+
+impl PointSpan {
+    /// A point seen once.
+    pub fn new(
+        course: u32,
+        reading: (NaiveDate, Thickness),
+        elevation: Option<Length>,
+        azimuth: Option<f64>,
+    ) -> Self {
+        PointSpan {
+            course,
+            surveys: 1,
+            first: reading,
+            last: reading,
+            elevation,
+            azimuth,
+        }
+    }
+    /// One more reading of the point; a reading at least as late as every earlier one
+    /// updates the position (elevation, azimuth) where it gives one.
+    pub fn add(
+        &mut self,
+        reading: (NaiveDate, Thickness),
+        elevation: Option<Length>,
+        azimuth: Option<f64>,
+    ) {
+        self.surveys += 1;
+        if reading.0 < self.first.0 {
+            self.first = reading;
+        }
+        if reading.0 >= self.last.0 {
+            self.last = reading;
+            self.elevation = elevation.or(self.elevation);
+            self.azimuth = azimuth.or(self.azimuth);
+        }
+    }
+}
+
 /// Rate and remaining life of one point, against its course's `t_min`.
 pub fn point_result(history: &PointHistory, t_min: Thickness) -> Option<PointResult> {
-    let first = *history.readings.first()?;
-    let last = *history.readings.last()?;
-    let years = years_between(first.0, last.0);
-    let rate =
-        (history.readings.len() >= 2 && years > 0.0).then(|| Rate((first.1.0 - last.1.0) / years));
-    let life = remaining_life(last.1, t_min, rate.map(|r| Rate(r.0.max(0.0))));
-    Some(PointResult {
-        point: history.point.clone(),
+    let span = PointSpan {
         course: history.course,
+        surveys: history.readings.len(),
+        first: *history.readings.first()?,
+        last: *history.readings.last()?,
         elevation: history.elevation,
         azimuth: history.azimuth,
-        surveys: history.readings.len(),
+    };
+    Some(point_result_of(history.point.clone(), &span, t_min))
+}
+
+/// [`point_result`] of the point `point` gathered as a [`PointSpan`].
+pub fn point_result_of(point: String, span: &PointSpan, t_min: Thickness) -> PointResult {
+    let (first, last) = (span.first, span.last);
+    let years = years_between(first.0, last.0);
+    let rate = (span.surveys >= 2 && years > 0.0).then(|| Rate((first.1.0 - last.1.0) / years));
+    let life = remaining_life(last.1, t_min, rate.map(|r| Rate(r.0.max(0.0))));
+    PointResult {
+        point,
+        course: span.course,
+        elevation: span.elevation,
+        azimuth: span.azimuth,
+        surveys: span.surveys,
         first,
         last,
         rate,
         remaining_life: life,
-    })
+    }
 }
 
 /// Indices of the worst points: thinning points ordered by remaining life, then by

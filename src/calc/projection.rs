@@ -9,9 +9,12 @@
 //! - the one-foot relation inverted (API 653 4.3.3.1, methods.md s.4) applied to the
 //!   projected thickness: H_max(y) = S E t(y) / (4.9 D G) + 0.3 + z_bottom
 //!   [USC: 2.6, 1 ft], least over courses;
+//! - a scanned area's level: its local rules inverted (API 653 4.3.2 with the local
+//!   t_min of 4.3.3.1, area.rs `area_fill_limit`), its thicknesses less N y;
 //! - the operating maximum liquid level stays allowed while every course under it
 //!   keeps t >= t_min at that level, that is until the earliest retirement date of
-//!   those courses (the round trip t_min(H_max(t)) = t of methods.md s.4).
+//!   those courses (the round trip t_min(H_max(t)) = t of methods.md s.4), and while
+//!   every scanned area's level stays at or above it.
 //!
 //! How far ahead the charts look and the step of the outlook are this project's
 //! presentation choices (constants.rs, "Chart projections"), not a method.
@@ -21,15 +24,18 @@
 
 use chrono::{Duration, NaiveDate};
 
+use super::area::{AreaAssessment, area_fill_limit};
 use super::constants::{
     CHART_HORIZON_MAX_YEARS, CHART_HORIZON_MIN_YEARS, DAYS_PER_YEAR, OUTLOOK_STEP_YEARS,
 };
 use super::life::add_years;
 use super::rates::years_between;
 use super::shell::max_fill_height;
-use super::units::{Rate, Thickness};
-use crate::model::result::{Assessment, FillLimit};
-use crate::model::series::{CourseDate, CourseOutlook, FillOutlook, ThicknessLine};
+use super::units::{Length, Rate, Thickness};
+use crate::model::result::{Assessment, CourseCondition};
+use crate::model::series::{
+    AreaOutlook, CourseOutlook, FillOutlook, LevelDate, OutlookLimit, ThicknessLine,
+};
 
 /// The last date the charts carry projections to: at least
 /// [`CHART_HORIZON_MIN_YEARS`] after the latest survey, and long enough to show the
@@ -94,12 +100,16 @@ pub fn outlook_dates(start: NaiveDate, horizon: NaiveDate) -> Vec<NaiveDate> {
     dates
 }
 
-/// Allowable liquid level of every measured course at each of `dates`: the course's
-/// thickness carried forward from its own latest survey at its governing rate, put
-/// through the inverted one-foot relation (methods.md s.4). A course without a rate
-/// has its level of today at the first date only; later levels cannot be projected
-/// and are missing (None), and so is the envelope on those dates.
+/// Allowable liquid level of every measured course and every scanned area at each of
+/// `dates`, and their least. A course's thickness is carried forward from its own
+/// latest survey at its governing rate and put through the inverted one-foot relation
+/// (methods.md s.4); an area's thicknesses (every window, t2, the least pit) lose
+/// N x years from the first date at its course's rate and go through the inverted
+/// local rules (area.rs, `area_fill_limit`). Without a rate, a course or area has its
+/// level of today at the first date only; later levels cannot be projected and are
+/// missing (None), and so is the envelope on those dates.
 pub fn fill_outlook(a: &Assessment, dates: &[NaiveDate]) -> FillOutlook {
+    let start = dates.first().copied().unwrap_or(a.latest_survey);
     let courses: Vec<CourseOutlook> = a
         .courses
         .iter()
@@ -108,16 +118,7 @@ pub fn fill_outlook(a: &Assessment, dates: &[NaiveDate]) -> FillOutlook {
             let levels = dates
                 .iter()
                 .enumerate()
-                .map(|(i, &d)| match k.rate_value() {
-                    Some(n) => {
-                        let y = years_between(k.latest.date, d).max(0.0);
-                        Some(
-                            max_fill_height(k.max_fill_height.load, k.t_actual().after(n, y)).value,
-                        )
-                    }
-                    None if i == 0 => Some(k.max_fill_height.value),
-                    None => None,
-                })
+                .map(|(i, &d)| course_level(k, d).or((i == 0).then_some(k.max_fill_height.value)))
                 .collect();
             Some(CourseOutlook {
                 course: c.number,
@@ -125,45 +126,129 @@ pub fn fill_outlook(a: &Assessment, dates: &[NaiveDate]) -> FillOutlook {
             })
         })
         .collect();
+    let areas: Vec<AreaOutlook> = a
+        .areas
+        .iter()
+        .enumerate()
+        .map(|(i, area)| AreaOutlook {
+            area: i,
+            course: area.scan.course,
+            levels: dates
+                .iter()
+                .enumerate()
+                .map(|(j, &d)| {
+                    let years = if j == 0 {
+                        Some(0.0)
+                    } else {
+                        area.future.rate.map(|_| years_between(start, d))
+                    };
+                    years.and_then(|y| area_level(area, y))
+                })
+                .collect(),
+        })
+        .collect();
     let envelope = (0..dates.len())
         .map(|i| {
-            let mut best: Option<FillLimit> = None;
-            for c in &courses {
-                let level = c.levels[i]?;
+            let candidates = courses
+                .iter()
+                .map(|c| (c.levels[i], c.course, None))
+                .chain(areas.iter().map(|x| (x.levels[i], x.course, Some(x.area))));
+            let mut best: Option<OutlookLimit> = None;
+            for (level, course, area) in candidates {
+                let level = level?;
                 if best.is_none_or(|b| level.0 < b.level.0) {
-                    best = Some(FillLimit {
+                    best = Some(OutlookLimit {
                         level,
-                        course: c.course,
+                        course,
+                        area,
                     });
                 }
             }
             best
         })
         .collect();
+    let horizon = dates.last().copied().unwrap_or(start);
     FillOutlook {
         dates: dates.to_vec(),
         courses,
+        areas,
         envelope,
-        operating_level_until: operating_level_until(a),
+        operating_level_until: operating_level_until(a, start, horizon),
     }
 }
 
-/// The date from which the operating maximum liquid level is no longer allowed: the
-/// earliest retirement date among the courses whose bottom lies below that level (a
-/// course wholly above the liquid never limits it). None when no such course has a
-/// retirement date.
-pub fn operating_level_until(a: &Assessment) -> Option<CourseDate> {
-    a.courses
+/// A course's allowable level on `date`, its thickness carried from its own latest
+/// survey at its governing rate (None without a rate).
+fn course_level(k: &CourseCondition, date: NaiveDate) -> Option<Length> {
+    let n = k.rate_value()?;
+    let y = years_between(k.latest.date, date).max(0.0);
+    Some(max_fill_height(k.max_fill_height.load, k.t_actual().after(n, y)).value)
+}
+
+/// An area's allowable level after `years` of corrosion at its course's rate.
+fn area_level(area: &AreaAssessment, years: f64) -> Option<Length> {
+    let loss = Thickness(area.future.rate.map_or(0.0, |n| n.0.max(0.0)) * years.max(0.0));
+    area_fill_limit(area, area.load.specific_gravity, loss).map(|l| l.calc.value)
+}
+
+/// The first date on which the operating maximum liquid level is no longer allowed.
+///
+/// - A course whose bottom lies below that level stops allowing it on its retirement
+///   date (the round trip t_min(H_max(t)) = t of methods.md s.4); a course wholly
+///   above the liquid never limits it.
+/// - A scanned area stops allowing it on the first day its level, after corrosion
+///   from `start`, falls below it: found by halving the days between `start` and
+///   `horizon` (the level only falls as the area thins); `start` when it is below
+///   already, None when it still allows the level at the horizon.
+///
+/// The earliest of these, or None.
+pub fn operating_level_until(
+    a: &Assessment,
+    start: NaiveDate,
+    horizon: NaiveDate,
+) -> Option<LevelDate> {
+    let op = a.tank.max_fill_height;
+    let from_courses = a
+        .courses
         .iter()
-        .filter(|c| c.bottom_elevation.0 < a.tank.max_fill_height.0)
+        .filter(|c| c.bottom_elevation.0 < op.0)
         .filter_map(|c| {
             let date = c.condition.as_ref()?.retirement_date?;
-            Some(CourseDate {
+            Some(LevelDate {
                 date,
                 course: c.number,
+                area: None,
             })
+        });
+    let from_areas = a.areas.iter().enumerate().filter_map(|(i, area)| {
+        let below = |days: i64| {
+            let y = days as f64 / DAYS_PER_YEAR;
+            area_level(area, y).is_some_and(|l| l.0 < op.0)
+        };
+        let date = if below(0) {
+            start
+        } else {
+            area.future.rate?;
+            let mut hi = (horizon - start).num_days();
+            if hi <= 0 || !below(hi) {
+                return None;
+            }
+            let mut lo = 0;
+            while hi - lo > 1 {
+                let mid = lo + (hi - lo) / 2;
+                if below(mid) { hi = mid } else { lo = mid }
+            }
+            start + Duration::days(hi)
+        };
+        Some(LevelDate {
+            date,
+            course: area.scan.course,
+            area: Some(i),
         })
-        .min_by_key(|cd| (cd.date, cd.course))
+    });
+    from_courses
+        .chain(from_areas)
+        .min_by_key(|d| (d.date, d.course, d.area))
 }
 
 #[cfg(test)]

@@ -183,9 +183,9 @@ pub fn student_t_quantile(p: f64, dof: f64) -> Option<f64> {
     StudentsT::new(0.0, 1.0, dof).ok().map(|d| d.inverse_cdf(p))
 }
 
-/// Why the requested rate basis could not be used.
+/// Why the chosen rate basis cannot be computed.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum RateFallback {
+pub enum RateUnavailable {
     /// The regression needs 3 or more surveys.
     TooFewSurveysForRegression,
     /// A two-point rate needs 2 or more surveys (or one and an in-service date).
@@ -195,13 +195,9 @@ pub enum RateFallback {
 /// The rate that governs remaining life and intervals.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct GoverningRate {
-    /// The basis asked for in tank.toml.
-    pub requested: RateBasis,
-    /// The basis used (the conservative one when the requested one is not available).
-    pub used: RateBasis,
-    /// Why the requested basis was not used, if it was not.
-    pub fallback: Option<RateFallback>,
-    /// The rate by `used`, before clamping.
+    /// The basis chosen in tank.toml.
+    pub basis: RateBasis,
+    /// The rate by that basis, before clamping.
     pub raw: Rate,
     /// max(raw, 0): a negative rate is measurement scatter (methods.md s.6).
     pub value: Rate,
@@ -235,34 +231,27 @@ pub fn rate_by(
     }
 }
 
-/// Chooses the governing rate by `requested`; falls back to the conservative rate
-/// when the requested one cannot be computed. None when no rate is known.
+/// The governing rate by `basis`. When that basis cannot be computed the rate is
+/// missing, with the reason: it is never replaced by another basis.
 pub fn governing_rate(
-    requested: RateBasis,
+    basis: RateBasis,
     long: Option<&RateCalc>,
     short: Option<&RateCalc>,
     reg: Option<&RegressionCalc>,
-) -> Option<GoverningRate> {
-    let (used, fallback, raw) = match rate_by(requested, long, short, reg) {
-        Some(r) => (requested, None, r),
-        None => {
-            let reason = match requested {
-                RateBasis::Regression | RateBasis::RegressionUpper => {
-                    RateFallback::TooFewSurveysForRegression
-                }
-                _ => RateFallback::TooFewSurveys,
-            };
-            let r = rate_by(RateBasis::Conservative, long, short, reg)?;
-            (RateBasis::Conservative, Some(reason), r)
-        }
-    };
-    Some(GoverningRate {
-        requested,
-        used,
-        fallback,
-        raw,
-        value: Rate(raw.0.max(0.0)),
-    })
+) -> Result<GoverningRate, RateUnavailable> {
+    match rate_by(basis, long, short, reg) {
+        Some(raw) => Ok(GoverningRate {
+            basis,
+            raw,
+            value: Rate(raw.0.max(0.0)),
+        }),
+        None => Err(match basis {
+            RateBasis::Regression | RateBasis::RegressionUpper => {
+                RateUnavailable::TooFewSurveysForRegression
+            }
+            _ => RateUnavailable::TooFewSurveys,
+        }),
+    }
 }
 
 #[cfg(test)]
@@ -362,17 +351,15 @@ mod tests {
         .expect("rates known");
         // max(LT = 1.0/20.0 = 0.05, ST = 0.4/5.0021 = 0.07997) = ST
         assert_eq!(g.value, st.map(|s| s.rate).expect("st"));
-        // Regression asked with two surveys -> conservative, with the reason.
+        // Regression asked with two surveys: missing, with the reason.
         let two = [p(2019, 11.4), p(2024, 11.0)];
         let g = governing_rate(
             RateBasis::Regression,
             long_term(&two, Thickness(12.5), None).as_ref(),
             short_term(&two).as_ref(),
             regression(&two).as_ref(),
-        )
-        .expect("two-point rates");
-        assert_eq!(g.used, RateBasis::Conservative);
-        assert_eq!(g.fallback, Some(RateFallback::TooFewSurveysForRegression));
+        );
+        assert_eq!(g, Err(RateUnavailable::TooFewSurveysForRegression));
     }
 
     /// Apparent thickening: raw rate negative, governing value 0.

@@ -143,6 +143,9 @@ mod tests {
             nominal_thickness: Thickness(nominal),
             material: Material::NotGiven,
             joint_efficiency: None,
+            corrosion_allowance: Thickness(0.0),
+            design_stress: None,
+            test_stress: None,
         };
         Tank {
             id: "T".into(),
@@ -162,6 +165,7 @@ mod tests {
 
     fn readings(rows: &[(NaiveDate, u32, f64)]) -> ReadingSet {
         ReadingSet {
+            scans: Vec::new(),
             files: vec!["s.csv".into()],
             readings: rows
                 .iter()
@@ -249,7 +253,10 @@ mod tests {
         // The operating level (10 m) is allowed until course 1 reaches t_min, and on
         // that date course 1's level is the operating level (round trip, s.4).
         let until = o.operating_level_until.expect("course 1 thins");
-        assert_eq!((Some(until.date), until.course), (k1.retirement_date, 1));
+        assert_eq!(
+            (Some(until.date), until.course, until.area),
+            (k1.retirement_date, 1, None)
+        );
         let t = k1.t_actual().after(
             k1.rate_value().expect("rate"),
             years_between(k1.latest.date, until.date),
@@ -307,6 +314,46 @@ mod tests {
         );
         assert_eq!(s.courses[0].surveys.len(), 1);
         assert!(s.courses[0].latest.iter().all(|r| r.thickness.0 >= 15.0));
+    }
+
+    /// A scanned area in the outlook (API 653 4.3.2 local rules, local t_min of
+    /// 4.3.3.1 without the one-foot offset; by hand): a 3 x 2 grid of 13.0 mm on
+    /// course 1 from z = 0.5 m, rows 50 mm apart. Every window mean and t2 are 13.0;
+    /// the lowest window (z = 0.5 m) under the t1 rule (f = 1) sets the level:
+    /// H = S E t / (4.9 D G) + z = 145 x 13.0 / 196 + 0.5 = 9.617347 + 0.5 =
+    /// 10.117347 m now, below course 1's 10.657143 m, so the area sets the envelope.
+    /// With N = 0.1000137 mm/y (course 1) it stops allowing the 10 m operating level
+    /// when 13.0 - N y = 9.5 x 196 / 145 = 12.841379 mm: N y = 0.158621 mm, y =
+    /// 1.585993 y = 579.28 days: day 579 still allows it, day 580 does not:
+    /// 2020-01-01 + 580 days = 2021-08-03 (366 days to 2021-01-01, then 214).
+    #[test]
+    fn scanned_area_by_hand() {
+        let (_, mut set) = sample();
+        set.scans.push(crate::model::scan::Scan {
+            file: "scan.csv".into(),
+            course: 1,
+            date: d(2020, 1, 1),
+            bottom_elevation: Length(0.5),
+            row_pitch: Thickness(50.0),
+            column_pitch: Thickness(50.0),
+            pit_threshold: None,
+            cells: vec![vec![Some(Thickness(13.0)); 2]; 3],
+            lines: vec![5, 6, 7],
+            delimiter: ',',
+        });
+        let a = assess(&tank(), &set, AssessOptions::default()).expect("assessable");
+        assert_eq!(a.areas.len(), 1);
+        let o = report_series(&a, &set).fill_outlook;
+        let now = o.areas[0].levels[0].expect("now").0;
+        assert!((now - 10.117_347).abs() < 1e-6, "{now}");
+        let env = o.envelope[0].expect("levels");
+        assert_eq!((env.course, env.area), (1, Some(0)));
+        assert!((env.level.0 - a.summary.max_fill_height.expect("level").level.0).abs() < 1e-9);
+        let until = o.operating_level_until.expect("the area thins");
+        assert_eq!(
+            (until.date, until.course, until.area),
+            (d(2021, 8, 3), 1, Some(0))
+        );
     }
 
     /// A course without readings has empty series and no outlook line.

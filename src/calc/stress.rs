@@ -12,8 +12,9 @@
 //! S allowable stress; all in the tank's stress unit (MPa or psi).
 
 use super::constants::{
-    LOWER_COURSE_COUNT, LOWER_TENSILE_FACTOR, LOWER_YIELD_FACTOR, UPPER_TENSILE_FACTOR,
-    UPPER_YIELD_FACTOR, riveted_stress, tensile_cap,
+    HYDROTEST_LOWER_TENSILE_FACTOR, HYDROTEST_LOWER_YIELD_FACTOR, HYDROTEST_UPPER_TENSILE_FACTOR,
+    HYDROTEST_UPPER_YIELD_FACTOR, LOWER_COURSE_COUNT, LOWER_TENSILE_FACTOR, LOWER_YIELD_FACTOR,
+    UPPER_TENSILE_FACTOR, UPPER_YIELD_FACTOR, riveted_stress, tensile_cap,
 };
 use super::units::{Stress, UnitSystem};
 use crate::model::tank::{Construction, Material};
@@ -27,6 +28,10 @@ pub enum StressRule {
     WeldedUpperCourses,
     /// Riveted: one fixed value.
     Riveted,
+    /// Hydrotest in service, welded, course 1 or 2: min(0.88 Y, 0.472 T).
+    HydrotestLowerCourses,
+    /// Hydrotest in service, welded, course 3 and up: min(0.9 Y, 0.519 T).
+    HydrotestUpperCourses,
 }
 
 impl StressRule {
@@ -35,6 +40,12 @@ impl StressRule {
         match self {
             StressRule::WeldedLowerCourses => Some((LOWER_YIELD_FACTOR, LOWER_TENSILE_FACTOR)),
             StressRule::WeldedUpperCourses => Some((UPPER_YIELD_FACTOR, UPPER_TENSILE_FACTOR)),
+            StressRule::HydrotestLowerCourses => {
+                Some((HYDROTEST_LOWER_YIELD_FACTOR, HYDROTEST_LOWER_TENSILE_FACTOR))
+            }
+            StressRule::HydrotestUpperCourses => {
+                Some((HYDROTEST_UPPER_YIELD_FACTOR, HYDROTEST_UPPER_TENSILE_FACTOR))
+            }
             StressRule::Riveted => None,
         }
     }
@@ -75,7 +86,7 @@ pub struct AllowableStress {
 /// Allowable stress of course `course_number` (1 = bottom) in service.
 ///
 /// `material` is the course's material; for welded tanks `Material::NotGiven` is
-/// treated as not known (the input layer refuses it, so this is a fallback only).
+/// treated as a material not known (the code's default properties).
 pub fn in_service_stress(
     units: UnitSystem,
     construction: Construction,
@@ -95,6 +106,36 @@ pub fn in_service_stress(
             value: s,
         };
     }
+    let rule = if course_number <= LOWER_COURSE_COUNT {
+        StressRule::WeldedLowerCourses
+    } else {
+        StressRule::WeldedUpperCourses
+    };
+    welded(units, rule, material)
+}
+
+/// Hydrostatic test stress S_t of a welded course in service (API 653 4.3.3.2 and
+/// table 4.1, from memory): lower two courses min(0.88 Y, 0.472 T), others
+/// min(0.9 Y, 0.519 T), T capped as for S. None for a riveted tank (no such rule in
+/// the methods this tool implements).
+pub fn in_service_test_stress(
+    units: UnitSystem,
+    construction: Construction,
+    course_number: u32,
+    material: &Material,
+) -> Option<AllowableStress> {
+    if construction == Construction::Riveted {
+        return None;
+    }
+    let rule = if course_number <= LOWER_COURSE_COUNT {
+        StressRule::HydrotestLowerCourses
+    } else {
+        StressRule::HydrotestUpperCourses
+    };
+    Some(welded(units, rule, material))
+}
+
+fn welded(units: UnitSystem, rule: StressRule, material: &Material) -> AllowableStress {
     let (y, t) = match material {
         Material::Grade(g) => (g.yield_strength(units), g.tensile_strength(units)),
         Material::Explicit {
@@ -105,11 +146,6 @@ pub fn in_service_stress(
             let g = super::materials::UNKNOWN_GRADE;
             (g.yield_strength(units), g.tensile_strength(units))
         }
-    };
-    let rule = if course_number <= LOWER_COURSE_COUNT {
-        StressRule::WeldedLowerCourses
-    } else {
-        StressRule::WeldedUpperCourses
     };
     let (fy, ft) = rule
         .factors()
@@ -203,6 +239,24 @@ mod tests {
     fn unknown_material_uses_the_code_defaults() {
         assert_eq!(psi(1, &grade("unknown")), psi(1, &grade("A283-C")));
         assert_eq!(psi(1, &Material::NotGiven), psi(1, &grade("A283-C")));
+    }
+
+    /// Hydrotest stress in service (API 653 table 4.1, from memory), A36:
+    /// lower min(0.88 x 36,000 = 31,680; 0.472 x 58,000 = 27,376) = 27,376 psi;
+    /// upper min(0.9 x 36,000 = 32,400; 0.519 x 58,000 = 30,102) = 30,102 psi.
+    #[test]
+    fn hydrotest_stress() {
+        let m = grade("A36");
+        let lower =
+            in_service_test_stress(UnitSystem::Usc, Construction::Welded, 2, &m).expect("welded");
+        assert!((lower.value.0 - 27_376.0).abs() < 1e-9);
+        let upper =
+            in_service_test_stress(UnitSystem::Usc, Construction::Welded, 3, &m).expect("welded");
+        assert!((upper.value.0 - 30_102.0).abs() < 1e-9);
+        assert_eq!(
+            in_service_test_stress(UnitSystem::Usc, Construction::Riveted, 3, &m),
+            None
+        );
     }
 
     /// Riveted: 21,000 psi / 145 MPa for every course (API 653 4.3.4, from memory).

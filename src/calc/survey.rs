@@ -8,9 +8,13 @@
 //! - basis thickness t_c = the minimum (default) or the mean (`average` basis).
 //! - A reading more than 10 % above nominal or below half of nominal is suspect
 //!   (common practice): it is kept and flagged, never discarded.
+//!
+//! The statistics are gathered one reading at a time ([`ReadingStats`]), with statrs's
+//! single-pass Welford accumulator (`OnlineMoments`), the very arithmetic statrs uses
+//! for the mean and standard deviation of a slice: no reading has to be kept.
 
 use chrono::NaiveDate;
-use statrs::statistics::Statistics;
+use statrs::statistics::{Accumulate, OnlineVariance};
 
 use super::constants::{SUSPECT_ABOVE_NOMINAL_FACTOR, SUSPECT_BELOW_NOMINAL_FACTOR};
 use super::units::Thickness;
@@ -35,26 +39,65 @@ pub struct CourseSurvey {
     pub basis: Thickness,
 }
 
+/// Running statistics of the readings of one course at one survey: the count, the
+/// least reading, and the Welford moments (statrs) for the mean and the sample
+/// standard deviation.
+#[derive(Default)]
+pub struct ReadingStats {
+    minimum: f64,
+    moments: OnlineVariance,
+}
+
+impl std::fmt::Debug for ReadingStats {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("ReadingStats")
+            .field("count", &self.count())
+            .field("minimum", &self.minimum)
+            .field("mean", &self.moments.mean())
+            .finish()
+    }
+}
+
+impl ReadingStats {
+    /// Adds one reading.
+    pub fn push(&mut self, reading: f64) {
+        if self.moments.count == 0 || reading < self.minimum {
+            self.minimum = reading;
+        }
+        self.moments = std::mem::take(&mut self.moments).push(reading);
+    }
+    /// Number of readings.
+    pub fn count(&self) -> usize {
+        self.moments.count as usize
+    }
+}
+
 /// Reduces the readings of one course at one date. None when there are none.
 pub fn course_survey(
     date: NaiveDate,
     readings: &[f64],
     basis: ThicknessBasis,
 ) -> Option<CourseSurvey> {
-    if readings.is_empty() {
-        return None;
+    let mut stats = ReadingStats::default();
+    for &r in readings {
+        stats.push(r);
     }
-    let minimum = Statistics::min(readings.iter());
-    let mean = readings.iter().mean();
-    let std_dev = if readings.len() >= 2 {
-        Some(readings.iter().std_dev())
-    } else {
-        None
-    };
+    course_survey_of(date, &stats, basis)
+}
+
+/// [`course_survey`] from statistics gathered one reading at a time.
+pub fn course_survey_of(
+    date: NaiveDate,
+    stats: &ReadingStats,
+    basis: ThicknessBasis,
+) -> Option<CourseSurvey> {
+    let mean = stats.moments.mean()?;
+    let minimum = stats.minimum;
+    let std_dev = stats.moments.std_dev();
     let cov = std_dev.map(|s| s / mean);
     Some(CourseSurvey {
         date,
-        count: readings.len(),
+        count: stats.count(),
         minimum: Thickness(minimum),
         mean: Thickness(mean),
         std_dev,
@@ -108,6 +151,33 @@ mod tests {
         assert_eq!(s.basis, Thickness(10.0));
         let a = course_survey(date(), &[10.0, 11.0, 12.0], ThicknessBasis::Average).expect("3");
         assert_eq!(a.basis, Thickness(11.0));
+    }
+
+    /// The running statistics are statrs's own slice statistics, bit for bit (statrs
+    /// `Statistics::min`, `mean`, `std_dev` as the independent reference), so gathering
+    /// readings while they stream changes no output.
+    #[test]
+    fn running_statistics_equal_statrs_slice_statistics() {
+        use statrs::statistics::Statistics;
+        let mut x = 0x2545_f491_u64;
+        for n in 1..60 {
+            let values: Vec<f64> = (0..n)
+                .map(|_| {
+                    x = x.wrapping_mul(6_364_136_223_846_793_005).wrapping_add(1);
+                    5.0 + (x >> 40) as f64 / 1.0e5
+                })
+                .collect();
+            let s = course_survey(date(), &values, ThicknessBasis::Minimum).expect("n >= 1");
+            assert_eq!(
+                s.minimum.0.to_bits(),
+                Statistics::min(values.iter()).to_bits()
+            );
+            assert_eq!(s.mean.0.to_bits(), values.iter().mean().to_bits());
+            if n >= 2 {
+                let sd = values.iter().std_dev();
+                assert_eq!(s.std_dev.expect("n >= 2").to_bits(), sd.to_bits());
+            }
+        }
     }
 
     #[test]

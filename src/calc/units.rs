@@ -21,6 +21,10 @@ use std::fmt;
 pub const MM_PER_IN: f64 = 25.4;
 /// Metres per foot: exact by definition of the international foot (1959).
 pub const M_PER_FT: f64 = 0.3048;
+/// Millimetres per metre (definition of the prefix).
+pub const MM_PER_M: f64 = 1000.0;
+/// Inches per foot (definition).
+pub const IN_PER_FT: f64 = 12.0;
 /// Pascals per psi: 1 lbf/in2 = 4.448 221 615 260 5 N / (0.0254 m)^2 (exact from the
 /// definitions of the pound-force and the inch).
 pub const PA_PER_PSI: f64 = 4.448_221_615_260_5 / (0.0254 * 0.0254);
@@ -76,6 +80,23 @@ impl UnitSystem {
             UnitSystem::Si => "mm/y",
             UnitSystem::Usc => "in/y",
         }
+    }
+    /// Thickness units in one length unit: 1000 mm per m, 12 in per ft (exact, by
+    /// definition). A grid scan gives its pitches in the thickness unit; elevations
+    /// are in the length unit.
+    pub fn thickness_units_per_length_unit(self) -> f64 {
+        match self {
+            UnitSystem::Si => MM_PER_M,
+            UnitSystem::Usc => IN_PER_FT,
+        }
+    }
+    /// A distance given in the thickness unit (mm or in), as a `Length` (m or ft).
+    pub fn as_length(self, distance: Thickness) -> Length {
+        Length(distance.0 / self.thickness_units_per_length_unit())
+    }
+    /// A `Length` (m or ft) in the thickness unit (mm or in).
+    pub fn as_thickness_unit(self, length: Length) -> Thickness {
+        Thickness(length.0 * self.thickness_units_per_length_unit())
     }
     /// Size of one thickness unit of this system in millimetres.
     fn mm_per_thickness_unit(self) -> f64 {
@@ -175,6 +196,17 @@ mod tests {
         );
         let mpa = Stress(1000.0).convert(UnitSystem::Usc, UnitSystem::Si).0;
         assert!((mpa - 6.894_757).abs() < 1e-6, "{mpa}");
+    }
+
+    /// 50 mm = 0.05 m; 6 in = 0.5 ft (definitions of the units).
+    #[test]
+    fn grid_distances_as_lengths() {
+        assert_eq!(UnitSystem::Si.as_length(Thickness(50.0)), Length(0.05));
+        assert_eq!(UnitSystem::Usc.as_length(Thickness(6.0)), Length(0.5));
+        assert_eq!(
+            UnitSystem::Usc.as_thickness_unit(Length(3.0)),
+            Thickness(36.0)
+        );
     }
 
     #[test]

@@ -1,9 +1,9 @@
 //! `strake assess TANK_DIR [--out [DIR]] [--stamp]`.
 
-use super::{Global, display, load_and_assess};
+use super::{Global, display, load_and_assess, today};
 use crate::calc::series::report_series;
 use crate::cli::{AssessArgs, Format};
-use crate::input::tank_dir::SURVEY_DIR;
+use crate::input::tank_dir::{SURVEY_DIR, load_tank_dir};
 use crate::report::folder::{ReportContext, default_folder, report_files, write_folder};
 use crate::report::view::View;
 use crate::report::{csv_out, json, text, write};
@@ -11,7 +11,7 @@ use crate::{Error, Outcome};
 
 /// Runs the command.
 pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
-    let (folder, a) = load_and_assess(&args.tank, args.sg, args.fill_height)?;
+    let a = load_and_assess(&args.tank, args.sg, args.fill_height)?;
     let v = View::new(a.tank.units, g.units);
     let out = match g.format {
         Format::Text => text::render(&a, &v, g.quiet),
@@ -22,6 +22,9 @@ pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
         None => None,
         Some(dir) => {
             let dir = dir.clone().unwrap_or_else(|| default_folder(&a.tank.id));
+            // The charts draw every reading: the folder is read again keeping them (the
+            // assessment above streamed the readings and kept none).
+            let folder = load_tank_dir(&args.tank.dir, today())?;
             let series = report_series(&a, &folder.readings);
             let stamp = args.stamp.then(|| {
                 chrono::Utc::now()

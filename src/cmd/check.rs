@@ -1,4 +1,5 @@
-//! `strake check PATH...`: tank folders or lone survey files.
+//! `strake check PATH...`: tank folders, lone survey files and lone scan files (a file
+//! in a `scans/` folder, or one whose first line is a `# key = value` line).
 
 use std::path::Path;
 
@@ -6,9 +7,12 @@ use super::{Global, display, today};
 use crate::calc::screen::screen;
 use crate::cli::{CheckArgs, Format};
 use crate::input::error::{InputError, InputErrorKind, Location};
+use crate::input::scan_csv::{looks_like_scan, read_scan};
 use crate::input::survey_csv::{SurveyContext, read_survey};
-use crate::input::tank_dir::{TANK_FILE, context_of, load_tank_dir, load_tank_file};
-use crate::model::reading::ReadingSet;
+use crate::input::tank_dir::{
+    RepeatFilter, SCAN_DIR, TANK_FILE, context_of, load_tank_dir, load_tank_file,
+};
+use crate::model::reading::{PointNames, ReadingSet};
 use crate::report::check::{Checked, render_json, render_text};
 use crate::report::write;
 use crate::{Error, Outcome};
@@ -53,6 +57,7 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
             files: folder.files,
             screening,
             remarks: folder.warnings,
+            scans: folder.readings.scans,
         });
     }
     let is_csv = path
@@ -75,6 +80,20 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
         .and_then(Path::parent)
         .filter(|d| d.join(TANK_FILE).is_file());
     let tank = tank_dir.map(load_tank_file).transpose()?;
+    let shown = display(path);
+    let bytes = std::fs::read(path)
+        .map_err(|e| InputError::new(Location::file(shown.clone()), InputErrorKind::Io(e)))?;
+    let in_scans = path
+        .parent()
+        .and_then(Path::file_name)
+        .is_some_and(|n| n == SCAN_DIR);
+    if in_scans || looks_like_scan(&bytes) {
+        let scan = read_scan(&shown, &bytes, tank.as_ref(), today)?;
+        return Ok(Checked::Scan {
+            scan: Box::new(scan),
+            tank: tank.map(|t| (t.id, t.units)),
+        });
+    }
     let ctx = match &tank {
         Some(t) => context_of(t, today),
         None => SurveyContext {
@@ -85,15 +104,20 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
             today,
         },
     };
-    let shown = display(path);
-    let bytes = std::fs::read(path)
-        .map_err(|e| InputError::new(Location::file(shown.clone()), InputErrorKind::Io(e)))?;
-    let mut set = ReadingSet::default();
-    let info = read_survey(&shown, &bytes, 0, &ctx, &mut set.readings)?;
-    set.files.push(shown);
+    let mut points = PointNames::default();
+    let mut readings = Vec::new();
+    let input = std::io::Cursor::new(bytes);
     match tank {
         Some(t) => {
-            let remarks = crate::input::tank_dir::remove_repeats(&t, &mut set)?;
+            let mut filter = RepeatFilter::new(t.units, &mut readings);
+            filter.files.push(shown.clone());
+            let info = read_survey(&shown, input, 0, &ctx, &mut points, &mut filter)?;
+            let (files, remarks) = filter.finish()?;
+            let set = ReadingSet {
+                files,
+                readings,
+                scans: Vec::new(),
+            };
             let screening = screen(Some(&t), &set);
             Ok(Checked::Tank {
                 dir: info.path.clone(),
@@ -101,11 +125,20 @@ fn check_path(path: &Path, today: chrono::NaiveDate) -> Result<Checked, InputErr
                 files: vec![info],
                 screening,
                 remarks,
+                scans: Vec::new(),
             })
         }
-        None => Ok(Checked::File {
-            screening: screen(None, &set),
-            info,
-        }),
+        None => {
+            let info = read_survey(&shown, input, 0, &ctx, &mut points, &mut readings)?;
+            let set = ReadingSet {
+                files: vec![shown],
+                readings,
+                scans: Vec::new(),
+            };
+            Ok(Checked::File {
+                screening: screen(None, &set),
+                info,
+            })
+        }
     }
 }

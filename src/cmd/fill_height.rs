@@ -9,14 +9,14 @@ use crate::{Error, Outcome};
 
 /// Runs the command.
 pub fn run(args: &FillHeightArgs, g: Global) -> Result<Outcome, Error> {
-    let (_, a) = load_and_assess(&args.tank, None, None)?;
+    let a = load_and_assess(&args.tank, None, None)?;
     let years = args.years.unwrap_or(a.summary.ut_interval.years);
     let scenarios = fill_scenarios(&a, &args.sgs, years);
     let v = View::new(a.tank.units, g.units);
     let out = match g.format {
         Format::Text => fill::render_text(&a, &scenarios, years, &v),
         Format::Json => fill::render_json(&a, &scenarios, years, &v),
-        Format::Csv => fill::render_csv(&scenarios, years, &v).map_err(Error::Render)?,
+        Format::Csv => fill::render_csv(&a, &scenarios, years, &v).map_err(Error::Render)?,
     };
     write::print(&out, g.color).map_err(Error::Output)?;
     Ok(Outcome::Done)

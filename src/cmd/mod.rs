@@ -3,18 +3,23 @@
 pub mod assess;
 pub mod check;
 pub mod fill_height;
+pub mod fleet;
+pub mod required;
 
 use std::path::Path;
 
 use chrono::NaiveDate;
 
 use crate::Error;
-use crate::calc::assess::{AssessOptions, assess};
+use crate::calc::assess::{AssessOptions, assess_tally};
+use crate::calc::tally::Tally;
 use crate::calc::units::{Length, UnitSystem};
 use crate::cli::{ColorArg, Format, TankArgs, UnitsArg};
 use crate::input::error::{InputError, InputErrorKind, Location};
-use crate::input::tank_dir::{TankFolder, load_tank_dir};
+use crate::input::tank_dir::{load_tank_file, read_scans, stream_surveys};
+use crate::model::reading::PointNames;
 use crate::model::result::Assessment;
+use crate::model::tank::Tank;
 use crate::report::write::ColorWhen;
 
 /// Options every command shares.
@@ -59,36 +64,63 @@ pub fn load_and_assess(
     args: &TankArgs,
     specific_gravity: Option<f64>,
     fill_height: Option<f64>,
-) -> Result<(TankFolder, Assessment), Error> {
-    let folder = load_tank_dir(&args.dir, today())?;
-    if let Some(h) = fill_height {
-        let shell = folder.tank.shell_height();
-        if h > shell.0 + 1e-9 {
-            let lu = folder.tank.units.length_unit();
+) -> Result<Assessment, Error> {
+    let options = AssessOptions {
+        as_of: args.as_of,
+        specific_gravity,
+        fill_height: fill_height.map(Length),
+        skip_points: false,
+    };
+    assess_dir(&args.dir, today(), options)
+}
+
+/// Reads a tank folder and assesses it. The survey files stream through a [`Tally`]
+/// (nothing per reading is kept) and the tally is dropped on return, so memory is
+/// that of one tank's courses, survey dates and points. `today` bounds survey dates.
+pub fn assess_dir(
+    dir: &Path,
+    today: NaiveDate,
+    options: AssessOptions,
+) -> Result<Assessment, Error> {
+    let tank = load_tank_file(dir)?;
+    assess_tank(dir, &tank, today, options)
+}
+
+/// [`assess_dir`] for a tank whose tank.toml is already read.
+pub fn assess_tank(
+    dir: &Path,
+    tank: &Tank,
+    today: NaiveDate,
+    options: AssessOptions,
+) -> Result<Assessment, Error> {
+    let mut tally = Tally::new(tank, options);
+    let mut names = PointNames::default();
+    let read = stream_surveys(dir, tank, today, &mut names, &mut tally)?;
+    let scans = read_scans(dir, tank, today)?;
+    if let Some(h) = options.fill_height {
+        let shell = tank.shell_height();
+        if h.0 > shell.0 + 1e-9 {
+            let lu = tank.units.length_unit();
             return Err(Error::Input(InputError::new(
-                Location::file(display(&args.dir)),
+                Location::file(display(dir)),
                 InputErrorKind::InvalidValue {
                     key: "option --fill-height".into(),
-                    value: format!("{h} {lu}"),
+                    value: format!("{} {lu}", h.0),
                     problem: format!("is above the shell height {} {lu}", shell.0),
                 },
             )));
         }
     }
-    let options = AssessOptions {
-        as_of: args.as_of,
-        specific_gravity,
-        fill_height: fill_height.map(Length),
-    };
-    let mut a =
-        assess(&folder.tank, &folder.readings, options).map_err(|source| Error::Assess {
-            dir: display(&args.dir),
+    let mut a = assess_tally(tank, &tally, &names, &read.files, &scans).map_err(|source| {
+        Error::Assess {
+            dir: display(dir),
             source,
-        })?;
-    let mut remarks = folder.warnings.clone();
+        }
+    })?;
+    let mut remarks = read.remarks;
     remarks.append(&mut a.warnings);
     a.warnings = remarks;
-    Ok((folder, a))
+    Ok(a)
 }
 
 /// A path as the user gave it.

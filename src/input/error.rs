@@ -78,6 +78,9 @@ pub enum InputErrorKind {
     /// A tank folder without tank.toml.
     #[error("no tank.toml here: a tank folder holds tank.toml and surveys/*.csv")]
     NoTankFile,
+    /// A fleet folder without any tank folder below it.
+    #[error("no tank folder (a folder holding tank.toml) below this folder")]
+    NoTankFolders,
     /// A path that is neither a tank folder nor a CSV file.
     #[error("not a tank folder (with tank.toml) nor a .csv file")]
     NotATankOrCsv,
@@ -190,6 +193,65 @@ pub enum InputErrorKind {
         first_value: String,
         /// This value, as shown.
         value: String,
+    },
+    /// A scan file with nothing in it.
+    #[error(
+        "the file is empty: expected a header block of \"# key = value\" lines (course, date, \
+         bottom_elevation, row_pitch, column_pitch) and a grid of readings below it"
+    )]
+    EmptyScan,
+    /// A scan with a header block and no grid.
+    #[error("no readings: the scan has a header block and no grid of readings below it")]
+    NoGrid,
+    /// A grid whose every cell is empty.
+    #[error("no readings: every cell of the grid is empty")]
+    EmptyGrid,
+    /// A key line below the first row of the grid.
+    #[error(
+        "key line \"# {key} = ...\" below the first row of the grid (line {grid_line}): put every \
+         key line in the header block above the grid"
+    )]
+    KeyAfterGrid {
+        /// The key as written.
+        key: String,
+        /// Line of the grid's first row.
+        grid_line: u64,
+    },
+    /// A grid row with a different number of cells from the first row.
+    #[error(
+        "{found} cell{}, expected {expected} as in the first row of the grid (line {first_line}); \
+         leave a cell empty for a point not measured",
+        if *.found == 1 { "" } else { "s" }
+    )]
+    GridWidth {
+        /// Cells in this row.
+        found: usize,
+        /// Cells in the first row.
+        expected: usize,
+        /// Line of the first row.
+        first_line: u64,
+    },
+    /// A grid cell that does not parse.
+    #[error("grid column {column}: \"{value}\" is not {what} (expected {expected})")]
+    BadCell {
+        /// 1-based column of the grid.
+        column: usize,
+        /// Raw text.
+        value: String,
+        /// What it failed to be.
+        what: &'static str,
+        /// What was expected.
+        expected: String,
+    },
+    /// A grid cell outside its range.
+    #[error("grid column {column}: {value} {problem}")]
+    CellOutOfRange {
+        /// 1-based column of the grid.
+        column: usize,
+        /// The value as shown.
+        value: String,
+        /// What is wrong and what was expected.
+        problem: String,
     },
     /// TOML syntax.
     #[error("TOML syntax: {0}")]

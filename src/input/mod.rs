@@ -2,6 +2,8 @@
 //! typed, validated values with their file and line attached.
 
 pub mod error;
+pub mod fleet;
+pub mod scan_csv;
 pub mod survey_csv;
 pub mod tank_dir;
 pub mod tank_file;

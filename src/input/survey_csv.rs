@@ -1,4 +1,4 @@
-//! Reads survey CSV files (formats.md "Survey CSV") into [`Reading`]s.
+//! Reads survey CSV files (formats.md "Survey CSV") row by row into readings.
 //!
 //! - Header row required; names are case-insensitive; unknown and repeated names are
 //!   refused (with the nearest known name suggested).
@@ -7,16 +7,23 @@
 //!   tolerated; lines starting with `#` are comments; blank lines are skipped.
 //! - Unit-suffixed columns (`thickness_mm`, `thickness_in`, `elevation_m`,
 //!   `elevation_ft`) are converted to the tank's units.
-//! - Every row is either returned or refused with its line, column and value.
+//! - Every row is either handed on or refused with its line, column and value.
 //!
 //! The csv crate does the CSV; this module only decides what each field means.
+//!
+//! Streaming: the file is read through a buffer and each row is parsed in place
+//! (fields stay in the csv crate's record, nothing is allocated per row) and handed to
+//! a [`ReadingSink`] at once; memory does not grow with the number of rows.
+
+use std::cell::RefCell;
+use std::io::{BufRead, BufReader, Read, Seek, SeekFrom};
 
 use chrono::NaiveDate;
 
 use super::error::{InputError, InputErrorKind, Location, nearest};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
-use crate::model::reading::{Origin, Reading};
+use crate::model::reading::{Origin, PointNames, PointRef, ReadingRef, ReadingSink};
 use crate::model::warning::Shown;
 
 /// Every column name the reader knows.
@@ -127,7 +134,8 @@ struct Columns {
     names: Vec<String>,
 }
 
-const BOM: &[u8] = b"\xEF\xBB\xBF";
+/// The UTF-8 byte-order mark some spreadsheet programs write.
+pub const BOM: &[u8] = b"\xEF\xBB\xBF";
 
 /// The delimiter of the first non-blank, non-comment line: the most frequent of
 /// `,` `;` and tab (`,` on a tie or when there is none).
@@ -148,27 +156,172 @@ pub fn detect_delimiter(bytes: &[u8]) -> u8 {
     }
 }
 
-/// Reads one survey file from its bytes. Readings are appended to `out` with
-/// `file_index` as their origin; returns what was found.
-pub fn read_survey(
+/// Exact powers of ten as f64 (every one up to 1e22 is representable).
+const POW10: [f64; 23] = [
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
+    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
+
+/// A plain decimal (`-?digits[.digits]`, at most 15 digits) read without the general
+/// parser: the digits as an integer m (exact, m < 2^53) divided by 10^k (exact,
+/// k <= 22) is one correctly rounded IEEE division, which is the fast path of
+/// Clinger's algorithm that Rust's own parser takes for such text: the same bits
+/// (checked against `str::parse` in the tests below). None for any other text.
+fn plain_decimal(b: &[u8]) -> Option<f64> {
+    let (negative, digits) = match b.split_first() {
+        Some((b'-', rest)) => (true, rest),
+        _ => (false, b),
+    };
+    let mut mantissa: u64 = 0;
+    let mut count = 0usize;
+    let mut fraction: Option<usize> = None;
+    for (i, &c) in digits.iter().enumerate() {
+        match c {
+            b'0'..=b'9' if count < 15 => {
+                mantissa = mantissa * 10 + u64::from(c - b'0');
+                count += 1;
+            }
+            b'.' if fraction.is_none() => fraction = Some(i),
+            _ => return None,
+        }
+    }
+    if count == 0 {
+        return None;
+    }
+    let k = fraction.map_or(0, |i| digits.len() - i - 1);
+    let v = mantissa as f64 / POW10[k];
+    Some(if negative { -v } else { v })
+}
+
+/// Bytes the reader asks the file for at a time.
+const READ_BUFFER: usize = 64 * 1024;
+
+/// Reads the start of `input` up to and including the first line that is neither
+/// blank nor a comment (the line the delimiter is detected from), without the
+/// byte-order mark. Returns those bytes and the rest of the input.
+fn sniff<R: Read>(input: R) -> std::io::Result<(Vec<u8>, BufReader<R>)> {
+    let mut rest = BufReader::with_capacity(8 * 1024, input);
+    let mut prefix = Vec::new();
+    loop {
+        let start = prefix.len();
+        if rest.read_until(b'\n', &mut prefix)? == 0 {
+            break;
+        }
+        if start == 0 && prefix.starts_with(BOM) {
+            prefix.drain(..BOM.len());
+        }
+        let line = &prefix[start..];
+        let line = line.strip_suffix(b"\n").unwrap_or(line);
+        let line = line.strip_suffix(b"\r").unwrap_or(line);
+        if !line.iter().all(u8::is_ascii_whitespace) && !line.starts_with(b"#") {
+            break;
+        }
+    }
+    Ok((prefix, rest))
+}
+
+/// A field of a record without surrounding ASCII white space (the csv crate's
+/// `Trim::All` does the same, but copies every record to do it).
+fn field(record: &csv::ByteRecord, i: usize) -> &[u8] {
+    record.get(i).unwrap_or(&[]).trim_ascii()
+}
+
+/// The input of a reused csv reader: replaced between files.
+struct Source(Box<dyn Read>);
+
+impl Read for Source {
+    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
+        self.0.read(buf)
+    }
+}
+
+/// Rewinding to the start is how a reused reader is pointed at its next file (the
+/// input itself is swapped just after); no other seek is asked for.
+impl Seek for Source {
+    fn seek(&mut self, pos: SeekFrom) -> std::io::Result<u64> {
+        match pos {
+            SeekFrom::Start(0) => Ok(0),
+            _ => Err(std::io::Error::other("survey input cannot seek")),
+        }
+    }
+}
+
+type CsvReader = csv::Reader<Source>;
+
+thread_local! {
+    /// Csv readers kept for reuse on this thread, one per delimiter. Building a csv
+    /// reader compiles its parser tables, which costs more than reading a survey file of
+    /// a few hundred rows; a fleet reads thousands of files.
+    static READERS: RefCell<Vec<(u8, CsvReader)>> = const { RefCell::new(Vec::new()) };
+}
+
+/// Runs `f` with a csv reader for `delimiter` reading `input` from its first byte: a
+/// reader of this thread rewound and given the new input (the csv crate's `seek_raw`
+/// resets its parser, line count and end-of-file state), or a new one.
+fn with_reader<T>(delimiter: u8, input: Box<dyn Read>, f: impl FnOnce(&mut CsvReader) -> T) -> T {
+    let cached = READERS.with(|r| {
+        let mut r = r.borrow_mut();
+        let i = r.iter().position(|(d, _)| *d == delimiter)?;
+        Some(r.swap_remove(i).1)
+    });
+    let rewound = cached.and_then(|mut reader| {
+        reader
+            .seek_raw(SeekFrom::Start(0), csv::Position::new())
+            .ok()?;
+        Some(reader)
+    });
+    let mut reader = match rewound {
+        Some(mut reader) => {
+            *reader.get_mut() = Source(input);
+            reader
+        }
+        None => csv::ReaderBuilder::new()
+            .has_headers(false)
+            .flexible(true)
+            .delimiter(delimiter)
+            .comment(Some(b'#'))
+            .buffer_capacity(READ_BUFFER)
+            .from_reader(Source(input)),
+    };
+    let out = f(&mut reader);
+    // Let go of the file now; keep the reader.
+    *reader.get_mut() = Source(Box::new(std::io::empty()));
+    READERS.with(|r| r.borrow_mut().push((delimiter, reader)));
+    out
+}
+
+/// Reads one survey file from `input`, handing each reading to `sink` as soon as its
+/// row is parsed, with `file_index` as its origin. Point ids get their keys from
+/// `points` (one interner per tank). Returns what was found.
+pub fn read_survey<R: Read + 'static>(
     path: &str,
-    bytes: &[u8],
+    input: R,
     file_index: u32,
     ctx: &SurveyContext,
-    out: &mut Vec<Reading>,
+    points: &mut PointNames,
+    sink: &mut impl ReadingSink,
 ) -> Result<SurveyFileInfo, InputError> {
-    let bytes = bytes.strip_prefix(BOM).unwrap_or(bytes);
-    let delimiter = detect_delimiter(bytes);
-    let mut reader = csv::ReaderBuilder::new()
-        .has_headers(false)
-        .flexible(true)
-        .delimiter(delimiter)
-        .comment(Some(b'#'))
-        .trim(csv::Trim::All)
-        .from_reader(bytes);
+    let (prefix, rest) =
+        sniff(input).map_err(|e| InputError::new(Location::file(path), InputErrorKind::Io(e)))?;
+    let delimiter = detect_delimiter(&prefix);
+    let input = Box::new(std::io::Cursor::new(prefix).chain(rest));
+    with_reader(delimiter, input, |reader| {
+        read_rows(path, reader, delimiter, file_index, ctx, points, sink)
+    })
+}
+
+fn read_rows(
+    path: &str,
+    reader: &mut CsvReader,
+    delimiter: u8,
+    file_index: u32,
+    ctx: &SurveyContext,
+    points: &mut PointNames,
+    sink: &mut impl ReadingSink,
+) -> Result<SurveyFileInfo, InputError> {
     let mut record = csv::ByteRecord::new();
     let at = |line: u64| Location::line(path, line);
-    let read = |reader: &mut csv::Reader<&[u8]>, record: &mut csv::ByteRecord| {
+    let read = |reader: &mut CsvReader, record: &mut csv::ByteRecord| {
         reader.read_byte_record(record).map_err(|e| {
             let line = e.position().map_or(1, |p| p.line());
             InputError::new(
@@ -177,7 +330,7 @@ pub fn read_survey(
             )
         })
     };
-    if !read(&mut reader, &mut record)? {
+    if !read(reader, &mut record)? {
         return Err(InputError::new(
             Location::file(path),
             InputErrorKind::EmptyFile,
@@ -185,18 +338,17 @@ pub fn read_survey(
     }
     let header_line = record.position().map_or(1, csv::Position::line);
     let cols = header(path, header_line, &record)?;
-    let row_parser = RowParser {
+    let mut row_parser = RowParser {
         path,
         ctx,
         cols: &cols,
         delimiter,
         date_cache: None,
     };
-    let mut row_parser = row_parser;
     let mut rows = 0usize;
-    while read(&mut reader, &mut record)? {
+    while read(reader, &mut record)? {
         let line = record.position().map_or(0, csv::Position::line);
-        if record.len() == 1 && record.get(0).is_some_and(<[u8]>::is_empty) {
+        if record.len() == 1 && field(&record, 0).is_empty() {
             continue;
         }
         if record.len() != cols.names.len() {
@@ -208,7 +360,8 @@ pub fn read_survey(
                 },
             ));
         }
-        out.push(row_parser.parse(&record, line, file_index)?);
+        let reading = row_parser.parse(&record, line, file_index, points)?;
+        sink.accept(&reading);
         rows += 1;
     }
     if rows == 0 {
@@ -236,7 +389,7 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
     let mut seen: Vec<(Field, usize, String)> = Vec::new();
     let mut names = Vec::with_capacity(record.len());
     for (i, raw) in record.iter().enumerate() {
-        let name = std::str::from_utf8(raw)
+        let name = std::str::from_utf8(raw.trim_ascii())
             .map_err(|_| InputError::new(at(), InputErrorKind::NotUtf8 { column: None }))?;
         names.push(name.to_string());
         let lower = name.to_ascii_lowercase();
@@ -313,10 +466,54 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
     })
 }
 
+/// How the text of a field reads as a number.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum NumberText {
+    /// Nothing there.
+    Empty,
+    /// A finite number.
+    Value(f64),
+    /// A number that is not finite (NaN, inf).
+    NotFinite,
+    /// Not a number.
+    NotANumber,
+    /// A decimal comma in a comma-delimited file.
+    CommaNeedsSemicolon,
+}
+
+/// What to add to "expected ..." after [`NumberText::CommaNeedsSemicolon`].
+pub const COMMA_HINT: &str = "; a decimal comma is accepted only in files delimited by ; or tab";
+
+/// Reads `s` as a number; a decimal comma is accepted when the file's `delimiter` is
+/// `;` or tab (one comma, no point).
+pub fn read_number(s: &str, delimiter: u8) -> NumberText {
+    if s.is_empty() {
+        return NumberText::Empty;
+    }
+    let parsed = if s.contains(',') {
+        if delimiter == b',' {
+            return NumberText::CommaNeedsSemicolon;
+        }
+        if s.contains('.') || s.matches(',').count() > 1 {
+            None
+        } else {
+            s.replace(',', ".").parse::<f64>().ok()
+        }
+    } else {
+        s.parse::<f64>().ok()
+    };
+    match parsed {
+        Some(v) if v.is_finite() => NumberText::Value(v),
+        Some(_) => NumberText::NotFinite,
+        None => NumberText::NotANumber,
+    }
+}
+
 /// Longest echo of a bad value in a message.
 const ECHO_CHARS: usize = 60;
 
-fn shorten(raw: &str) -> String {
+/// `raw`, cut to a length fit for a message.
+pub fn shorten(raw: &str) -> String {
     if raw.chars().count() > ECHO_CHARS {
         let s: String = raw.chars().take(ECHO_CHARS - 3).collect();
         format!("{s}...")
@@ -345,8 +542,7 @@ impl RowParser<'_> {
         i: usize,
         line: u64,
     ) -> Result<&'r str, InputError> {
-        let raw = record.get(i).unwrap_or(&[]);
-        std::str::from_utf8(raw).map_err(|_| {
+        std::str::from_utf8(field(record, i)).map_err(|_| {
             InputError::new(
                 self.at(line),
                 InputErrorKind::NotUtf8 {
@@ -397,67 +593,72 @@ impl RowParser<'_> {
     }
 
     /// A finite number; decimal comma accepted when the delimiter is `;` or tab.
+    /// `expected` describes the value for messages (made only when one is needed).
     fn number(
         &self,
         record: &csv::ByteRecord,
         i: usize,
         line: u64,
-        expected: &str,
+        expected: &dyn Fn() -> String,
     ) -> Result<Option<f64>, InputError> {
-        let s = self.text(record, i, line)?;
-        if s.is_empty() {
+        let raw = field(record, i);
+        if raw.is_empty() {
             return Ok(None);
         }
-        let parsed = if s.contains(',') {
-            if self.delimiter == b',' {
-                return Err(self.bad(
-                    line,
-                    i,
-                    s,
-                    "a number",
-                    format!("{expected}; a decimal comma is accepted only in files delimited by ; or tab"),
-                ));
+        // Fast path for plain decimals; anything else (exponents, decimal comma,
+        // errors) takes the path below with its messages.
+        if let Some(v) = plain_decimal(raw) {
+            return Ok(Some(v));
+        }
+        let expected = expected();
+        let s = self.text(record, i, line)?;
+        match read_number(s, self.delimiter) {
+            NumberText::Empty => Ok(None),
+            NumberText::Value(v) => Ok(Some(v)),
+            NumberText::NotFinite => {
+                Err(self.bad(line, i, s, "a finite number", expected.to_string()))
             }
-            if s.contains('.') || s.matches(',').count() > 1 {
-                None
-            } else {
-                s.replace(',', ".").parse::<f64>().ok()
+            NumberText::NotANumber => Err(self.bad(line, i, s, "a number", expected.to_string())),
+            NumberText::CommaNeedsSemicolon => {
+                Err(self.bad(line, i, s, "a number", format!("{expected}{COMMA_HINT}")))
             }
-        } else {
-            s.parse::<f64>().ok()
-        };
-        match parsed {
-            Some(v) if v.is_finite() => Ok(Some(v)),
-            Some(_) => Err(self.bad(line, i, s, "a finite number", expected.to_string())),
-            None => Err(self.bad(line, i, s, "a number", expected.to_string())),
         }
     }
 
-    fn parse(
+    fn parse<'r>(
         &mut self,
-        record: &csv::ByteRecord,
+        record: &'r csv::ByteRecord,
         line: u64,
         file_index: u32,
-    ) -> Result<Reading, InputError> {
+        points: &mut PointNames,
+    ) -> Result<ReadingRef<'r>, InputError> {
         let ctx = self.ctx;
         let cols = self.cols;
         let date = self.date(record, line)?;
 
         // course
         let ci = cols.course;
-        let course_text = self.text(record, ci, line)?;
-        if course_text.is_empty() {
-            return Err(self.empty(line, ci, "a course number (1 = bottom course)".into()));
-        }
-        let course: u32 = course_text.parse().map_err(|_| {
-            self.bad(
-                line,
-                ci,
-                course_text,
-                "a course number",
-                "a whole number, 1 = bottom course".into(),
-            )
-        })?;
+        // One or two digits without a leading zero read at once; anything else through
+        // `str::parse` and its messages.
+        let course: u32 = match field(record, ci) {
+            [d @ b'1'..=b'9'] => u32::from(d - b'0'),
+            [a @ b'1'..=b'9', b @ b'0'..=b'9'] => u32::from(a - b'0') * 10 + u32::from(b - b'0'),
+            _ => {
+                let course_text = self.text(record, ci, line)?;
+                if course_text.is_empty() {
+                    return Err(self.empty(line, ci, "a course number (1 = bottom course)".into()));
+                }
+                course_text.parse().map_err(|_| {
+                    self.bad(
+                        line,
+                        ci,
+                        course_text,
+                        "a course number",
+                        "a whole number, 1 = bottom course".into(),
+                    )
+                })?
+            }
+        };
         let n_courses = ctx.nominal.len() as u32;
         if course == 0 || (n_courses > 0 && course > n_courses) {
             let problem = if n_courses > 0 {
@@ -473,14 +674,17 @@ impl RowParser<'_> {
         // thickness
         let (ti, suffix) = cols.thickness;
         let unit_name = suffix_unit(suffix, ctx.units, true);
-        let expected = format!(
-            "a thickness in {unit_name}, e.g. {}",
-            example_thickness(unit_name)
-        );
+        let expected = || {
+            format!(
+                "a thickness in {unit_name}, e.g. {}",
+                example_thickness(unit_name)
+            )
+        };
         let raw = self
             .number(record, ti, line, &expected)?
-            .ok_or_else(|| self.empty(line, ti, expected.clone()))?;
+            .ok_or_else(|| self.empty(line, ti, expected()))?;
         if raw <= 0.0 {
+            let expected = expected();
             return Err(self.range(
                 line,
                 ti,
@@ -508,16 +712,20 @@ impl RowParser<'_> {
         let point = match cols.point {
             Some(i) => Some(self.text(record, i, line)?)
                 .filter(|s| !s.is_empty())
-                .map(Box::from),
+                .map(|id| PointRef {
+                    key: points.key(id),
+                    id,
+                }),
             None => None,
         };
         let elevation = match cols.elevation {
             Some((i, suffix)) => {
                 let unit_name = suffix_unit(suffix, ctx.units, false);
-                let expected = format!("a height above the tank bottom in {unit_name}");
+                let expected = || format!("a height above the tank bottom in {unit_name}");
                 match self.number(record, i, line, &expected)? {
                     None => None,
                     Some(v) if v < 0.0 => {
+                        let expected = expected();
                         return Err(self.range(
                             line,
                             i,
@@ -549,27 +757,27 @@ impl RowParser<'_> {
             None => None,
         };
         let azimuth = match cols.azimuth {
-            Some(i) => match self.number(record, i, line, "degrees from 0 to 360")? {
-                None => None,
-                Some(a) if (0.0..=360.0).contains(&a) => Some(a),
-                Some(a) => {
-                    return Err(self.range(
-                        line,
-                        i,
-                        a.to_string(),
-                        "is outside 0 to 360 degrees".into(),
-                    ));
+            Some(i) => {
+                match self.number(record, i, line, &|| "degrees from 0 to 360".to_string())? {
+                    None => None,
+                    Some(a) if (0.0..=360.0).contains(&a) => Some(a),
+                    Some(a) => {
+                        return Err(self.range(
+                            line,
+                            i,
+                            a.to_string(),
+                            "is outside 0 to 360 degrees".into(),
+                        ));
+                    }
                 }
-            },
+            }
             None => None,
         };
         let note = match cols.note {
-            Some(i) => Some(self.text(record, i, line)?)
-                .filter(|s| !s.is_empty())
-                .map(Box::from),
-            None => None,
+            Some(i) if !field(record, i).is_empty() => Some(self.text(record, i, line)?),
+            _ => None,
         };
-        Ok(Reading {
+        Ok(ReadingRef {
             date,
             course,
             thickness,
@@ -586,7 +794,7 @@ impl RowParser<'_> {
 
     fn date(&mut self, record: &csv::ByteRecord, line: u64) -> Result<NaiveDate, InputError> {
         let i = self.cols.date;
-        let raw = record.get(i).unwrap_or(&[]);
+        let raw = field(record, i);
         if let Some((text, date)) = &self.date_cache
             && text.as_slice() == raw
         {
@@ -664,7 +872,8 @@ fn suffix_unit(suffix: Suffix, units: Option<UnitSystem>, thickness: bool) -> &'
     }
 }
 
-fn example_thickness(unit: &str) -> &'static str {
+/// An example reading in `unit`, for messages.
+pub fn example_thickness(unit: &str) -> &'static str {
     if unit == "in" { "0.375" } else { "12.40" }
 }
 
@@ -687,5 +896,74 @@ fn convert_length(v: f64, suffix: Suffix, units: Option<UnitSystem>) -> Length {
     match (suffix_system(suffix), units) {
         (Some(from), Some(to)) => Length(v).convert(from, to),
         _ => Length(v),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use proptest::prelude::*;
+
+    /// Reference: Rust's own `f64::from_str`. Whatever the fast path reads, the
+    /// standard parser reads to the same bits, so taking it changes no value and no
+    /// message.
+    fn agrees(text: &str) {
+        if let Some(v) = super::plain_decimal(text.as_bytes()) {
+            let std: f64 = text
+                .parse()
+                .unwrap_or_else(|_| panic!("fast-float read {text:?}, std refuses it"));
+            assert_eq!(v.to_bits(), std.to_bits(), "{text:?}");
+        }
+    }
+
+    #[test]
+    fn fast_numbers_are_std_numbers_on_edge_cases() {
+        for t in [
+            "0",
+            "-0",
+            "+1",
+            "1.",
+            ".5",
+            "-.5",
+            "1e5",
+            "1E-5",
+            "1e",
+            "e5",
+            ".",
+            "-",
+            "+",
+            "1.2.3",
+            "1,5",
+            "0x10",
+            "1_000",
+            "inf",
+            "-infinity",
+            "NaN",
+            "1e400",
+            "1e-400",
+            "00012.50",
+            "12.345678901234567890",
+            "9007199254740993",
+            " 1",
+            "1 ",
+        ] {
+            agrees(t);
+        }
+    }
+
+    proptest! {
+        #[test]
+        fn fast_numbers_are_std_numbers(text in "[-+]?[0-9]{0,20}(\\.[0-9]{0,20})?([eE][-+]?[0-9]{1,3})?") {
+            agrees(&text);
+        }
+
+        #[test]
+        fn fast_numbers_are_std_numbers_on_plain_decimals(text in "-?[0-9]{0,9}\\.?[0-9]{0,9}") {
+            agrees(&text);
+        }
+
+        #[test]
+        fn fast_numbers_are_std_numbers_on_any_text(text in "[-+.,eE0-9a-z ]{0,12}") {
+            agrees(&text);
+        }
     }
 }

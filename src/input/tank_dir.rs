@@ -1,14 +1,22 @@
-//! Loads a tank folder: `tank.toml` and every `surveys/*.csv`.
+//! Loads a tank folder: `tank.toml`, every `surveys/*.csv` and every `scans/*.csv`.
+//!
+//! [`stream_surveys`] reads the survey files one row at a time and hands each reading
+//! on at once (through [`RepeatFilter`], which settles repeated points); nothing keeps
+//! the rows unless the receiving [`ReadingSink`] does.
 
-use std::collections::HashMap;
+use std::collections::hash_map::Entry;
 use std::path::Path;
 
 use chrono::NaiveDate;
+use rustc_hash::FxHashMap;
 
 use super::error::{InputError, InputErrorKind, Location};
+use super::scan_csv::read_scan;
 use super::survey_csv::{SurveyContext, SurveyFileInfo, read_survey};
 use super::tank_file::parse_tank;
-use crate::model::reading::{Reading, ReadingSet};
+use crate::calc::units::{Thickness, UnitSystem};
+use crate::model::reading::{Origin, PointKey, PointNames, ReadingRef, ReadingSet, ReadingSink};
+use crate::model::scan::Scan;
 use crate::model::tank::Tank;
 use crate::model::warning::{Shown, Warning};
 
@@ -16,6 +24,8 @@ use crate::model::warning::{Shown, Warning};
 pub const TANK_FILE: &str = "tank.toml";
 /// Folder of survey files in a tank folder.
 pub const SURVEY_DIR: &str = "surveys";
+/// Folder of grid scans of local thin areas in a tank folder.
+pub const SCAN_DIR: &str = "scans";
 
 /// Everything read from one tank folder.
 #[derive(Debug, Clone)]
@@ -71,7 +81,29 @@ pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
 /// The survey files of a tank folder, sorted by name (none when there is no
 /// surveys/ folder).
 pub fn survey_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
-    let folder = dir.join(SURVEY_DIR);
+    csv_files(dir, SURVEY_DIR)
+}
+
+/// The scan files of a tank folder, sorted by name (none when there is no scans/
+/// folder).
+pub fn scan_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
+    csv_files(dir, SCAN_DIR)
+}
+
+/// Reads every grid scan of the tank folder `dir`.
+pub fn read_scans(dir: &Path, tank: &Tank, today: NaiveDate) -> Result<Vec<Scan>, InputError> {
+    let mut scans = Vec::new();
+    for path in scan_files(dir)? {
+        let shown = path.display().to_string();
+        let bytes = read_bytes(&path)?;
+        scans.push(read_scan(&shown, &bytes, Some(tank), today)?);
+    }
+    Ok(scans)
+}
+
+/// The visible `*.csv` files of `dir/sub`, sorted by name.
+fn csv_files(dir: &Path, sub: &str) -> Result<Vec<std::path::PathBuf>, InputError> {
+    let folder = dir.join(sub);
     if !folder.is_dir() {
         return Ok(Vec::new());
     }
@@ -116,84 +148,179 @@ pub fn context_of(tank: &Tank, today: NaiveDate) -> SurveyContext {
     }
 }
 
-/// Loads a whole tank folder. `today` bounds the survey dates.
-pub fn load_tank_dir(dir: &Path, today: NaiveDate) -> Result<TankFolder, InputError> {
-    let tank = load_tank_file(dir)?;
-    let ctx = context_of(&tank, today);
-    let mut set = ReadingSet::default();
-    let mut files = Vec::new();
-    for (i, path) in survey_files(dir)?.iter().enumerate() {
+/// What reading a tank's survey files found, besides the readings themselves.
+#[derive(Debug, Clone)]
+pub struct SurveysRead {
+    /// Files read, as displayed (index = `Origin::file`).
+    pub files: Vec<String>,
+    /// What each file held.
+    pub infos: Vec<SurveyFileInfo>,
+    /// Remarks made while reading (repeated rows).
+    pub remarks: Vec<Warning>,
+}
+
+/// Reads every survey file of the tank folder `dir` (sorted by name), handing each
+/// reading to `sink` as its row is parsed. Point ids are keyed by `points`; `today`
+/// bounds the survey dates.
+pub fn stream_surveys(
+    dir: &Path,
+    tank: &Tank,
+    today: NaiveDate,
+    points: &mut PointNames,
+    sink: &mut impl ReadingSink,
+) -> Result<SurveysRead, InputError> {
+    let ctx = context_of(tank, today);
+    let mut filter = RepeatFilter::new(tank.units, sink);
+    let mut infos = Vec::new();
+    let paths = survey_files(dir)?;
+    for (i, path) in paths.iter().enumerate() {
         let shown = path.display().to_string();
-        let bytes = read_bytes(path)?;
-        let info = read_survey(&shown, &bytes, i as u32, &ctx, &mut set.readings)?;
-        set.files.push(shown);
-        files.push(info);
+        let file = std::fs::File::open(path)
+            .map_err(|e| InputError::new(Location::file(shown.clone()), InputErrorKind::Io(e)))?;
+        filter.files.push(shown.clone());
+        let info = read_survey(&shown, file, i as u32, &ctx, points, &mut filter)?;
+        // The other files likely have as many rows: room for their repeat check at once.
+        if i == 0 {
+            filter.first.reserve(info.rows * (paths.len() - 1));
+        }
+        infos.push(info);
     }
-    let warnings = remove_repeats(&tank, &mut set)?;
-    Ok(TankFolder {
-        dir: dir.display().to_string(),
-        tank,
-        readings: set,
+    let (files, remarks) = filter.finish()?;
+    Ok(SurveysRead {
         files,
-        warnings,
+        infos,
+        remarks,
     })
 }
 
+/// Loads a whole tank folder, keeping every reading (for `strake check`, which lists
+/// them by course and date). `today` bounds the survey dates.
+pub fn load_tank_dir(dir: &Path, today: NaiveDate) -> Result<TankFolder, InputError> {
+    let tank = load_tank_file(dir)?;
+    let mut readings = Vec::new();
+    let mut points = PointNames::default();
+    let read = stream_surveys(dir, &tank, today, &mut points, &mut readings)?;
+    let scans = read_scans(dir, &tank, today)?;
+    Ok(TankFolder {
+        dir: dir.display().to_string(),
+        tank,
+        readings: ReadingSet {
+            files: read.files,
+            readings,
+            scans,
+        },
+        files: read.infos,
+        warnings: read.remarks,
+    })
+}
+
+/// The first reading of a point on a date.
+#[derive(Debug, Clone, Copy)]
+struct FirstReading {
+    thickness: Thickness,
+    course: u32,
+    origin: Origin,
+}
+
+/// Settles repeated points while readings stream past, then hands them on.
+///
 /// The same point on the same date twice: an error when the values differ (the
-/// inspector must choose), a warning when they are equal (the repeat is counted once).
-pub fn remove_repeats(tank: &Tank, set: &mut ReadingSet) -> Result<Vec<Warning>, InputError> {
-    let mut first: HashMap<(&str, NaiveDate), usize> = HashMap::new();
-    let mut repeats: Vec<(usize, usize)> = Vec::new();
-    for (i, r) in set.readings.iter().enumerate() {
-        let Some(point) = r.point.as_deref() else {
-            continue;
+/// inspector must choose), a warning when they are equal (the repeat is counted once
+/// and not handed on). The error is kept until every file has been read, so that an
+/// unreadable row anywhere is reported first, as when the files were read whole.
+pub struct RepeatFilter<'s, S> {
+    inner: &'s mut S,
+    units: UnitSystem,
+    /// Files read so far, as displayed (index = `Origin::file`).
+    pub files: Vec<String>,
+    first: FxHashMap<(u32, PointKey, NaiveDate), FirstReading>,
+    remarks: Vec<Warning>,
+    conflict: Option<InputError>,
+}
+
+impl<'s, S: ReadingSink> RepeatFilter<'s, S> {
+    /// A filter in front of `inner`, for a tank in `units`.
+    pub fn new(units: UnitSystem, inner: &'s mut S) -> Self {
+        RepeatFilter {
+            inner,
+            units,
+            files: Vec::new(),
+            first: FxHashMap::default(),
+            remarks: Vec::new(),
+            conflict: None,
+        }
+    }
+
+    fn locate(&self, origin: Origin) -> String {
+        let file = self
+            .files
+            .get(origin.file as usize)
+            .map_or("?", String::as_str);
+        format!("{file}:{}", origin.line)
+    }
+
+    /// The files read and the remarks, or the first conflicting repeat.
+    pub fn finish(self) -> Result<(Vec<String>, Vec<Warning>), InputError> {
+        match self.conflict {
+            Some(e) => Err(e),
+            None => Ok((self.files, self.remarks)),
+        }
+    }
+}
+
+impl<S: ReadingSink> ReadingSink for RepeatFilter<'_, S> {
+    fn accept(&mut self, r: &ReadingRef<'_>) {
+        let Some(point) = r.point else {
+            self.inner.accept(r);
+            return;
         };
-        match first.get(&(point, r.date)) {
-            None => {
-                first.insert((point, r.date), i);
+        // A point id names a location on its course: the same id on another course is
+        // another point.
+        let a = match self.first.entry((r.course, point.key, r.date)) {
+            Entry::Vacant(v) => {
+                v.insert(FirstReading {
+                    thickness: r.thickness,
+                    course: r.course,
+                    origin: r.origin,
+                });
+                self.inner.accept(r);
+                return;
             }
-            Some(&j) => repeats.push((j, i)),
-        }
-    }
-    let mut warnings = Vec::new();
-    let mut drop = vec![false; set.readings.len()];
-    for (j, i) in repeats {
-        let (a, b): (&Reading, &Reading) = (&set.readings[j], &set.readings[i]);
-        if a.thickness != b.thickness || a.course != b.course {
-            return Err(InputError::new(
-                Location::line(set.file_of(b.origin), b.origin.line),
-                InputErrorKind::ConflictingDuplicate {
-                    point: b.point.as_deref().unwrap_or("").to_string(),
-                    date: b.date,
-                    first: set.locate(a.origin),
-                    first_value: format!(
-                        "{} (course {})",
-                        Shown::thickness(a.thickness, tank.units),
-                        a.course
+            Entry::Occupied(o) => *o.get(),
+        };
+        if a.thickness != r.thickness {
+            if self.conflict.is_none() {
+                self.conflict = Some(InputError::new(
+                    Location::line(
+                        self.files
+                            .get(r.origin.file as usize)
+                            .map_or("?", String::as_str),
+                        r.origin.line,
                     ),
-                    value: format!(
-                        "{} (course {})",
-                        Shown::thickness(b.thickness, tank.units),
-                        b.course
-                    ),
-                },
-            ));
+                    InputErrorKind::ConflictingDuplicate {
+                        point: point.id.to_string(),
+                        date: r.date,
+                        first: self.locate(a.origin),
+                        first_value: format!(
+                            "{} (course {})",
+                            Shown::thickness(a.thickness, self.units),
+                            a.course
+                        ),
+                        value: format!(
+                            "{} (course {})",
+                            Shown::thickness(r.thickness, self.units),
+                            r.course
+                        ),
+                    },
+                ));
+            }
+            return;
         }
-        warnings.push(Warning::DuplicateReading {
-            location: set.locate(b.origin),
-            first: set.locate(a.origin),
-            point: b.point.as_deref().unwrap_or("").to_string(),
-            date: b.date,
-        });
-        drop[i] = true;
-    }
-    if drop.iter().any(|&d| d) {
-        let mut k = 0;
-        set.readings.retain(|_| {
-            let keep = !drop[k];
-            k += 1;
-            keep
+        self.remarks.push(Warning::DuplicateReading {
+            location: self.locate(r.origin),
+            first: self.locate(a.origin),
+            point: point.id.to_string(),
+            date: r.date,
         });
     }
-    Ok(warnings)
 }

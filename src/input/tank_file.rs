@@ -43,6 +43,9 @@ pub const COURSE_KEYS: &[&str] = &[
     "yield_strength",
     "tensile_strength",
     "joint_efficiency",
+    "corrosion_allowance",
+    "design_stress",
+    "test_stress",
 ];
 
 /// Parses and validates the text of a tank file; `path` is used in messages.
@@ -170,11 +173,33 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
         c.positive(&height, "height", lu)?;
         let nominal = c.required_number("nominal_thickness", &format!("a number in {tu}"))?;
         c.positive(&nominal, "nominal_thickness", tu)?;
-        let material = course_material(c, construction, su)?;
+        let material = course_material(c, su)?;
         let e = match c.optional_number("joint_efficiency", "a number in (0, 1]")? {
             None => None,
             Some(e) => Some(c.efficiency(&e)?),
         };
+        let ca = match c.optional_number("corrosion_allowance", &format!("a number in {tu}"))? {
+            None => 0.0,
+            Some(v) if *v.get_ref() >= 0.0 => *v.get_ref(),
+            Some(v) => {
+                return Err(c.invalid(
+                    &v,
+                    "corrosion_allowance",
+                    &format!("is negative, expected 0 or more {tu}"),
+                ));
+            }
+        };
+        let stress = |key: &str| -> Result<Option<Stress>, InputError> {
+            match c.optional_number(key, &format!("a number in {su}"))? {
+                None => Ok(None),
+                Some(v) => {
+                    c.positive(&v, key, su)?;
+                    Ok(Some(Stress(*v.get_ref())))
+                }
+            }
+        };
+        let design_stress = stress("design_stress")?;
+        let test_stress = stress("test_stress")?;
         courses.push(Course {
             number,
             height: Length(*height.get_ref()),
@@ -182,6 +207,9 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             nominal_thickness: Thickness(*nominal.get_ref()),
             material,
             joint_efficiency: e,
+            corrosion_allowance: Thickness(ca),
+            design_stress,
+            test_stress,
         });
         bottom += *height.get_ref();
     }
@@ -213,11 +241,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     })
 }
 
-fn course_material(
-    c: &Table<'_, '_>,
-    construction: Construction,
-    su: &str,
-) -> Result<Material, InputError> {
+fn course_material(c: &Table<'_, '_>, su: &str) -> Result<Material, InputError> {
     let grade = c.optional_string("material", "a grade name, e.g. \"A36\"")?;
     let ys = c.optional_number("yield_strength", &format!("a number in {su}"))?;
     let ts = c.optional_number("tensile_strength", &format!("a number in {su}"))?;
@@ -267,8 +291,7 @@ fn course_material(
         }
         (None, Some(_), None) => Err(c.missing("tensile_strength")),
         (None, None, Some(_)) => Err(c.missing("yield_strength")),
-        (None, None, None) if construction == Construction::Riveted => Ok(Material::NotGiven),
-        (None, None, None) => Err(c.missing("material")),
+        (None, None, None) => Ok(Material::NotGiven),
     }
 }
 

@@ -3,6 +3,7 @@
 use chrono::NaiveDate;
 
 use crate::calc::units::{Length, Thickness};
+use crate::model::scan::Scan;
 
 /// Where a reading came from: an index into the list of files read, and the 1-based
 /// line of the row.
@@ -42,6 +43,27 @@ pub struct ReadingSet {
     pub files: Vec<String>,
     /// Readings in file order, then line order.
     pub readings: Vec<Reading>,
+    /// Grid scans of local thin areas (`scans/*.csv`), in file-name order.
+    pub scans: Vec<Scan>,
+}
+
+impl Reading {
+    /// The reading as it would stream past, with its point id keyed by `names`.
+    pub fn borrow<'a>(&'a self, names: &mut PointNames) -> ReadingRef<'a> {
+        ReadingRef {
+            date: self.date,
+            course: self.course,
+            thickness: self.thickness,
+            point: self.point.as_deref().map(|id| PointRef {
+                key: names.key(id),
+                id,
+            }),
+            elevation: self.elevation,
+            azimuth: self.azimuth,
+            note: self.note.as_deref(),
+            origin: self.origin,
+        }
+    }
 }
 
 impl ReadingSet {
@@ -55,5 +77,142 @@ impl ReadingSet {
     /// `file:line` of a reading.
     pub fn locate(&self, origin: Origin) -> String {
         format!("{}:{}", self.file_of(origin), origin.line)
+    }
+}
+
+/// A stable key for a point id within one tank: the same id text always gets the same
+/// key while a tank's survey files are read (see [`PointNames`]).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub struct PointKey(pub u32);
+
+/// A point id as it streams past: its key and its text.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct PointRef<'a> {
+    /// Key, the same for the same text within one tank.
+    pub key: PointKey,
+    /// The id as written.
+    pub id: &'a str,
+}
+
+/// One reading as the survey reader hands it on while parsing: the text of its point
+/// and note is borrowed from the row, so nothing is allocated per reading.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ReadingRef<'a> {
+    /// Survey date.
+    pub date: NaiveDate,
+    /// Course number, 1 = bottom.
+    pub course: u32,
+    /// Measured wall thickness, in the tank's thickness unit.
+    pub thickness: Thickness,
+    /// Stable location id.
+    pub point: Option<PointRef<'a>>,
+    /// Height above the tank bottom, in the tank's length unit.
+    pub elevation: Option<Length>,
+    /// Degrees clockwise from the tank's 0 mark.
+    pub azimuth: Option<f64>,
+    /// Free text.
+    pub note: Option<&'a str>,
+    /// File and line.
+    pub origin: Origin,
+}
+
+impl ReadingRef<'_> {
+    /// An owned copy.
+    pub fn to_reading(&self) -> Reading {
+        Reading {
+            date: self.date,
+            course: self.course,
+            thickness: self.thickness,
+            point: self.point.map(|p| Box::from(p.id)),
+            elevation: self.elevation,
+            azimuth: self.azimuth,
+            note: self.note.map(Box::from),
+            origin: self.origin,
+        }
+    }
+}
+
+/// Whatever consumes readings as they are parsed (an accumulator of what the methods
+/// need, a screening count, or a plain collection).
+pub trait ReadingSink {
+    /// Takes one reading. Readings arrive in file order, then line order.
+    fn accept(&mut self, reading: &ReadingRef<'_>);
+}
+
+impl ReadingSink for Vec<Reading> {
+    fn accept(&mut self, reading: &ReadingRef<'_>) {
+        self.push(reading.to_reading());
+    }
+}
+
+/// Interns the point ids of one tank: each distinct id text gets a [`PointKey`], in
+/// order of first appearance.
+///
+/// Survey files of one tank usually list the same points in the same order, so the
+/// key after the previous one is tried first (a comparison of a few bytes) before
+/// the hash map is asked.
+#[derive(Debug, Clone, Default)]
+pub struct PointNames {
+    keys: rustc_hash::FxHashMap<Box<str>, u32>,
+    /// Every id, one after the other; `ends[k]` is where id `k` ends.
+    text: String,
+    ends: Vec<usize>,
+    previous: Option<u32>,
+}
+
+impl PointNames {
+    /// The key of `id`, assigning the next one on first sight.
+    pub fn key(&mut self, id: &str) -> PointKey {
+        let guess = self.previous.map_or(0, |p| p + 1);
+        let key = match self.name(PointKey(guess)) {
+            Some(name) if name == id => guess,
+            _ => match self.keys.get(id) {
+                Some(&k) => k,
+                None => {
+                    let k = self.ends.len() as u32;
+                    self.text.push_str(id);
+                    self.ends.push(self.text.len());
+                    self.keys.insert(Box::from(id), k);
+                    k
+                }
+            },
+        };
+        self.previous = Some(key);
+        PointKey(key)
+    }
+    /// The text of a key given out by this interner.
+    pub fn name(&self, key: PointKey) -> Option<&str> {
+        let k = key.0 as usize;
+        let end = *self.ends.get(k)?;
+        let start = if k == 0 { 0 } else { self.ends[k - 1] };
+        self.text.get(start..end)
+    }
+    /// Number of distinct ids seen.
+    pub fn len(&self) -> usize {
+        self.ends.len()
+    }
+    /// True when no id has been seen.
+    pub fn is_empty(&self) -> bool {
+        self.ends.is_empty()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn interning_gives_stable_keys_in_order_of_first_sight() {
+        let mut n = PointNames::default();
+        let first: Vec<u32> = ["A", "B", "C"].iter().map(|s| n.key(s).0).collect();
+        assert_eq!(first, [0, 1, 2]);
+        // The same ids again, in order (the guessed path) and out of order (the map).
+        let again: Vec<u32> = ["A", "B", "C", "B", "A", "D", "C"]
+            .iter()
+            .map(|s| n.key(s).0)
+            .collect();
+        assert_eq!(again, [0, 1, 2, 1, 0, 3, 2]);
+        assert_eq!(n.name(PointKey(3)), Some("D"));
+        assert_eq!(n.len(), 4);
     }
 }

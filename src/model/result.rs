@@ -4,6 +4,8 @@
 
 use chrono::NaiveDate;
 
+use crate::calc::area::AreaAssessment;
+use crate::calc::extreme::{ExtremeValue, NotApplicable};
 use crate::calc::life::{IntervalBasis, IntervalCalc, RemainingLife, Status};
 use crate::calc::rates::{GoverningRate, RateCalc, RegressionCalc};
 use crate::calc::shell::{FillHeightCalc, TminCalc};
@@ -44,8 +46,10 @@ pub struct CourseCondition {
     pub short_term: Option<RateCalc>,
     /// Regression and its upper bound.
     pub regression: Option<RegressionCalc>,
-    /// The governing rate (None when no rate is known).
+    /// The governing rate (None when the chosen basis cannot be computed).
     pub rate: Option<GoverningRate>,
+    /// Why `rate` is missing.
+    pub rate_missing: Option<crate::calc::rates::RateUnavailable>,
     /// Remaining life.
     pub remaining_life: RemainingLife,
     /// Date the course reaches t_min at the governing rate.
@@ -92,6 +96,10 @@ pub struct CourseResult {
     pub t_min: TminCalc,
     /// Measured condition; None when the course has no readings.
     pub condition: Option<CourseCondition>,
+    /// Extreme-value estimate of the course's thinnest spot from its drops at the
+    /// latest survey (methods.md s.8), or why there is none. An estimate beside the
+    /// measured minimum, never used in its place.
+    pub extreme_value: Result<ExtremeValue, NotApplicable>,
 }
 
 /// A liquid level limit and the course that sets it.
@@ -117,14 +125,14 @@ pub struct TankInterval {
 /// Tank-level verdict.
 #[derive(Debug, Clone, PartialEq)]
 pub struct TankSummary {
-    /// Course with the least remaining life (the lower on a tie); None when no course
-    /// has a known rate and none is below t_min.
+    /// Course with the least finite remaining life (the lower on a tie); None when no
+    /// course has one (no rate known, or no measurable corrosion anywhere).
     pub governing_course: Option<u32>,
     /// Remaining life of the governing course.
     pub remaining_life: Option<RemainingLife>,
-    /// Allowable liquid level now (least over measured courses).
+    /// Allowable liquid level now: the least over measured courses and scanned areas.
     pub max_fill_height: Option<FillLimit>,
-    /// Allowable liquid level at the next UT inspection.
+    /// Allowable liquid level at the next UT inspection (courses and areas).
     pub max_fill_height_next: Option<FillLimit>,
     /// UT thickness survey interval.
     pub ut_interval: TankInterval,
@@ -136,6 +144,11 @@ pub struct TankSummary {
     pub next_external_inspection: Option<NaiveDate>,
     /// Courses below t_min.
     pub below_minimum: Vec<u32>,
+    /// Index into `Assessment::areas` of the scanned area that sets
+    /// `max_fill_height` (None when a course sets it).
+    pub max_fill_height_area: Option<usize>,
+    /// The same for `max_fill_height_next`.
+    pub max_fill_height_next_area: Option<usize>,
 }
 
 /// The history of one thickness monitoring location.
@@ -184,4 +197,10 @@ pub struct Assessment {
     pub hot_spots: Vec<usize>,
     /// Findings and data remarks.
     pub warnings: Vec<Warning>,
+    /// Hydrostatic test heights (API 653 4.3.3.2).
+    pub hydrotest: crate::calc::hydrotest::Hydrotest,
+    /// For tanks over the one-foot limit: the variable-design-point comparison.
+    pub variable_point: Option<crate::calc::hydrotest::VariablePointComparison>,
+    /// Scanned local thin areas (`scans/*.csv`), in file-name order.
+    pub areas: Vec<AreaAssessment>,
 }

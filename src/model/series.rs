@@ -6,7 +6,6 @@ use chrono::NaiveDate;
 
 use crate::calc::survey::SuspectKind;
 use crate::calc::units::{Length, Thickness};
-use crate::model::result::FillLimit;
 
 /// Everything the charts of one tank need beyond the [`Assessment`](super::result::Assessment).
 #[derive(Debug, Clone, PartialEq)]
@@ -102,6 +101,28 @@ pub struct CourseOutlook {
     pub levels: Vec<Option<Length>>,
 }
 
+/// One scanned area's allowable liquid level at each step of the outlook.
+#[derive(Debug, Clone, PartialEq)]
+pub struct AreaOutlook {
+    /// Index into `Assessment::areas`.
+    pub area: usize,
+    /// The course the area is on.
+    pub course: u32,
+    /// Allowable level at each step (None where it cannot be computed: no rate).
+    pub levels: Vec<Option<Length>>,
+}
+
+/// The least allowable level at one step, and what sets it.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct OutlookLimit {
+    /// The level.
+    pub level: Length,
+    /// The course that sets it (or the course of the area that sets it).
+    pub course: u32,
+    /// The scanned area that sets it (index into `Assessment::areas`), if one does.
+    pub area: Option<usize>,
+}
+
 /// Allowable liquid level over the coming years.
 #[derive(Debug, Clone, PartialEq)]
 pub struct FillOutlook {
@@ -109,18 +130,24 @@ pub struct FillOutlook {
     pub dates: Vec<NaiveDate>,
     /// Per measured course.
     pub courses: Vec<CourseOutlook>,
-    /// The least over courses at each step (None when a measured course has no level).
-    pub envelope: Vec<Option<FillLimit>>,
-    /// The date from which the operating maximum liquid level is no longer allowed,
-    /// and the course that sets it (None when no course with a rate ever limits it).
-    pub operating_level_until: Option<CourseDate>,
+    /// Per scanned area.
+    pub areas: Vec<AreaOutlook>,
+    /// The least over courses and areas at each step (None when one of them has no
+    /// level there).
+    pub envelope: Vec<Option<OutlookLimit>>,
+    /// The first date on which the operating maximum liquid level is no longer
+    /// allowed, and what sets it (None when that does not happen: no course or area
+    /// under the level thins, or, for areas, not before the horizon).
+    pub operating_level_until: Option<LevelDate>,
 }
 
-/// A date set by a course.
+/// A date set by a course or a scanned area.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub struct CourseDate {
+pub struct LevelDate {
     /// The date.
     pub date: NaiveDate,
-    /// The course that sets it.
+    /// The course that sets it (or the course of the area).
     pub course: u32,
+    /// The scanned area that sets it, if one does.
+    pub area: Option<usize>,
 }

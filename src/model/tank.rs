@@ -110,6 +110,12 @@ pub struct Course {
     pub material: Material,
     /// Per-course joint efficiency override.
     pub joint_efficiency: Option<f64>,
+    /// Design corrosion allowance (for `required`; 0 when not given).
+    pub corrosion_allowance: Thickness,
+    /// Design stress S_d given instead of the material's (for `required`).
+    pub design_stress: Option<Stress>,
+    /// Hydrostatic test stress S_t given instead of the material's (for `required`).
+    pub test_stress: Option<Stress>,
 }
 
 /// A validated tank description.

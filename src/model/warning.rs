@@ -7,7 +7,7 @@ use std::fmt;
 
 use chrono::NaiveDate;
 
-use crate::calc::rates::RateFallback;
+use crate::calc::rates::RateUnavailable;
 use crate::calc::survey::SuspectKind;
 use crate::calc::units::{Rate, Thickness, UnitSystem};
 use crate::model::tank::RateBasis;
@@ -31,6 +31,11 @@ impl Shown {
             unit: units.thickness_unit(),
             decimals: thickness_decimals(units),
         }
+    }
+    /// One more decimal, for comparing two close values.
+    pub fn finer(mut self) -> Self {
+        self.decimals += 1;
+        self
     }
     /// A rate in the unit of `units`.
     pub fn rate(r: Rate, units: UnitSystem) -> Self {
@@ -74,16 +79,20 @@ pub enum Warning {
         /// The negative rate.
         rate: Shown,
     },
-    /// The requested rate basis could not be used.
-    RateBasisFallback {
+    /// The chosen rate basis cannot be computed for a course.
+    RateBasisUnavailable {
         /// Course.
         course: u32,
-        /// Asked for.
-        requested: RateBasis,
-        /// Used instead.
-        used: RateBasis,
+        /// The basis chosen in tank.toml.
+        basis: RateBasis,
         /// Why.
-        reason: RateFallback,
+        reason: RateUnavailable,
+    },
+    /// A welded course without a material: the code's defaults for a material not
+    /// known are used.
+    MaterialNotGiven {
+        /// Course.
+        course: u32,
     },
     /// One survey only: the long-term rate assumes the nominal thickness when new.
     AssumedNominal {
@@ -156,12 +165,92 @@ pub enum Warning {
         /// Courses without readings.
         courses: Vec<u32>,
     },
+    /// The one-foot method is used beyond its diameter limit.
+    OneFootBeyondLimit {
+        /// Diameter as shown.
+        diameter: String,
+        /// Limit as shown.
+        limit: String,
+    },
+    /// The variable-design-point method does not apply (L / H over its limit).
+    VariablePointNotApplicable {
+        /// L / H.
+        ratio: f64,
+        /// The limit.
+        limit: f64,
+        /// Whether the one-foot method is within its diameter limit.
+        one_foot_applies: bool,
+    },
+    /// The design point fell below the course's bottom joint (K < 1: the course is
+    /// weaker than the one below it).
+    VariablePointBelowJoint {
+        /// Course.
+        course: u32,
+    },
+    /// The design-point iteration did not settle within its step limit.
+    VariablePointNotSettled {
+        /// Course.
+        course: u32,
+    },
+    /// A course's nominal thickness is below what a method requires.
+    NominalBelowRequired {
+        /// Course.
+        course: u32,
+        /// Nominal.
+        nominal: Shown,
+        /// Required.
+        required: Shown,
+        /// Which method.
+        method: &'static str,
+    },
     /// Readings after the `--as-of` date were left out.
     ReadingsAfterAsOf {
         /// How many.
         count: usize,
         /// The as-of date.
         as_of: NaiveDate,
+    },
+    /// The readings of a course vary too much for their mean to represent it
+    /// (COV > 0.10, API 579-1 Part 4, from memory).
+    NonUniform {
+        /// Course.
+        course: u32,
+        /// s / mean of its latest survey.
+        cov: f64,
+        /// Whether a scan of the course is assessed.
+        scanned: bool,
+    },
+    /// Scans dated after the `--as-of` date were left out.
+    ScansAfterAsOf {
+        /// How many.
+        count: usize,
+        /// The as-of date.
+        as_of: NaiveDate,
+    },
+    /// A scanned course has no corrosion rate: its area is judged as measured.
+    AreaNoRate {
+        /// The scan file.
+        file: String,
+        /// Course.
+        course: u32,
+    },
+    /// No averaging window of a scan had half its cells valid: no t1.
+    AreaNoWindow {
+        /// The scan file.
+        file: String,
+        /// k.
+        rows_per_window: usize,
+    },
+    /// The extreme-value estimate of a course's thinnest spot is below its t_min.
+    ExtremeBelowMinimum {
+        /// Course.
+        course: u32,
+        /// The estimated least thickness.
+        estimate: Shown,
+        /// The course's t_min.
+        t_min: Shown,
+        /// Whether a scan of the course is assessed.
+        scanned: bool,
     },
 }
 
@@ -181,25 +270,31 @@ impl fmt::Display for Warning {
                 "course {course}: apparent thickening ({rate}) treated as 0; \
                  check the gauge calibration and the readings of both surveys"
             ),
-            Warning::RateBasisFallback {
+            Warning::RateBasisUnavailable {
                 course,
-                requested,
-                used,
+                basis,
                 reason,
             } => {
                 let why = match reason {
-                    RateFallback::TooFewSurveysForRegression => {
+                    RateUnavailable::TooFewSurveysForRegression => {
                         "a regression needs 3 or more surveys"
                     }
-                    RateFallback::TooFewSurveys => "it needs 2 or more surveys",
+                    RateUnavailable::TooFewSurveys => "it needs 2 or more surveys",
                 };
                 write!(
                     f,
-                    "course {course}: rate basis \"{}\" not available ({why}); \"{}\" used",
-                    requested.name(),
-                    used.name()
+                    "course {course}: rate basis \"{}\" cannot be computed ({why}): no \
+                     governing rate, remaining life not computed; add surveys or choose \
+                     rate_basis = \"conservative\"",
+                    basis.name()
                 )
             }
+            Warning::MaterialNotGiven { course } => write!(
+                f,
+                "course {course}: no material in tank.toml: the code's properties for a material \
+                 not known are used (Y = 30,000 psi / 205 MPa, T = 55,000 psi / 380 MPa); give \
+                 `material` if it is known"
+            ),
             Warning::AssumedNominal {
                 course,
                 nominal,
@@ -277,6 +372,103 @@ impl fmt::Display for Warning {
             ),
             Warning::ReadingsAfterAsOf { count, as_of } => {
                 write!(f, "{count} readings dated after {as_of} left out (--as-of)")
+            }
+            Warning::OneFootBeyondLimit { diameter, limit } => write!(
+                f,
+                "D {diameter} is over the one-foot method's limit of {limit} (API 650 5.6.3.1): \
+                 its thicknesses are shown for comparison only"
+            ),
+            Warning::VariablePointNotApplicable {
+                ratio,
+                limit,
+                one_foot_applies,
+            } => {
+                let instead = if *one_foot_applies {
+                    "the one-foot method applies"
+                } else {
+                    "neither method applies: an elastic analysis is needed (API 650 5.6.5)"
+                };
+                write!(
+                    f,
+                    "variable-design-point method not applied: L/H = {ratio:.3} is over its \
+                     limit {limit:.3} (API 650 5.6.4.1); {instead}"
+                )
+            }
+            Warning::VariablePointBelowJoint { course } => write!(
+                f,
+                "course {course}: the variable design point falls below the course's bottom \
+                 joint (K = t_L / t_u < 1: this course needs more than the one below it); the \
+                 method's formulas are applied as printed, but a lower course should be no \
+                 thinner than the course above it (API 650 5.6.1.3, from memory): check the \
+                 plate grades or use an elastic analysis"
+            ),
+            Warning::VariablePointNotSettled { course } => write!(
+                f,
+                "course {course}: the variable-design-point iteration did not settle within \
+                 its step limit; its last value is shown"
+            ),
+            Warning::NominalBelowRequired {
+                course,
+                nominal,
+                required,
+                method,
+            } => write!(
+                f,
+                "course {course}: nominal {nominal} is below the {required} required by the \
+                 {method} method"
+            ),
+            Warning::NonUniform {
+                course,
+                cov,
+                scanned,
+            } => {
+                let then = if *scanned {
+                    "judge it on the scan of this course (Local areas)"
+                } else {
+                    "no scan of this course in scans/: scan a grid over its thinnest area"
+                };
+                write!(
+                    f,
+                    "course {course}: the readings vary too much for their average to represent \
+                     the course (COV {cov:.3} > 0.10, API 579-1 Part 4, from memory): treat the \
+                     loss as local; {then}"
+                )
+            }
+            Warning::ScansAfterAsOf { count, as_of } => write!(
+                f,
+                "{count} scan{} dated after {as_of} left out (--as-of)",
+                if *count == 1 { "" } else { "s" }
+            ),
+            Warning::AreaNoRate { file, course } => write!(
+                f,
+                "{file}: course {course} has no corrosion rate: the local-area rules are checked \
+                 as measured, without corrosion to the next inspection, and the area's level at \
+                 the next inspection is not computed"
+            ),
+            Warning::AreaNoWindow {
+                file,
+                rows_per_window,
+            } => write!(
+                f,
+                "{file}: no averaging window of {rows_per_window} rows has half its cells \
+                 measured: t1 not computed; fill the gaps or scan at a finer pitch"
+            ),
+            Warning::ExtremeBelowMinimum {
+                course,
+                estimate,
+                t_min,
+                scanned,
+            } => {
+                let then = if *scanned {
+                    "compare it with the scan of this course"
+                } else {
+                    "scan the course where its drops read thinnest"
+                };
+                write!(
+                    f,
+                    "course {course}: the extreme-value estimate of its thinnest spot, {estimate}, \
+                     is below t_min {t_min} (an estimate, not a measurement): {then}"
+                )
             }
         }
     }

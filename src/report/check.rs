@@ -5,7 +5,9 @@ use std::fmt::Write as _;
 use serde::Serialize;
 
 use crate::calc::screen::Screening;
+use crate::calc::units::UnitSystem;
 use crate::input::survey_csv::SurveyFileInfo;
+use crate::model::scan::Scan;
 use crate::model::tank::Tank;
 use crate::model::warning::Warning;
 use crate::report::text::{bold, bullet};
@@ -25,6 +27,16 @@ pub enum Checked {
         screening: Screening,
         /// Repeats and other remarks made while reading.
         remarks: Vec<Warning>,
+        /// Grid scans read (scans/*.csv).
+        scans: Vec<Scan>,
+    },
+    /// A lone grid scan file.
+    Scan {
+        /// The scan.
+        scan: Box<Scan>,
+        /// The id and units of the tank it was checked against (None without a
+        /// tank.toml above).
+        tank: Option<(String, UnitSystem)>,
     },
     /// A lone survey file.
     File {
@@ -61,6 +73,40 @@ fn count_table(s: &Screening, out: &mut String) {
     }
 }
 
+/// One line about a scan: course, date, grid, readings, pits, delimiter (with units
+/// when the tank is known).
+fn scan_line(s: &Scan, units: Option<UnitSystem>) -> String {
+    let (lu, tu) = units.map_or(("", ""), |u| (u.length_unit(), u.thickness_unit()));
+    let sp = |unit: &str| if unit.is_empty() { "" } else { " " };
+    let pits = match s.pit_threshold {
+        Some(p) => format!(
+            ", {} pit{} (below {}{}{tu})",
+            s.pits(),
+            if s.pits() == 1 { "" } else { "s" },
+            p.0,
+            sp(tu)
+        ),
+        None => String::new(),
+    };
+    format!(
+        "course {}, {}, {} rows x {} columns, bottom row at {}{}{lu}, row pitch {}{}{tu}, column \
+         pitch {}{}{tu}, {} readings, {} not measured{pits}, delimiter {}",
+        s.course,
+        s.date,
+        s.rows(),
+        s.columns(),
+        s.bottom_elevation.0,
+        sp(lu),
+        s.row_pitch.0,
+        sp(tu),
+        s.column_pitch.0,
+        sp(tu),
+        s.readings(),
+        s.not_measured(),
+        delimiter_name(s.delimiter)
+    )
+}
+
 /// Terminal text.
 pub fn render_text(items: &[Checked]) -> String {
     let mut o = String::new();
@@ -74,19 +120,20 @@ pub fn render_text(items: &[Checked]) -> String {
                 files,
                 screening,
                 remarks,
+                scans,
             } => {
                 ok += 1;
                 let readings: usize = screening.counts.values().sum();
                 let _ = writeln!(
                     o,
-                    "{b}{dir}{b:#}: tank {}{}, {}, {} courses, D {} {}",
+                    "{b}{dir}{b:#}: tank {}{}, {}, {}, D {} {}",
                     tank.id,
                     tank.name
                         .as_deref()
                         .map(|n| format!(" - {n}"))
                         .unwrap_or_default(),
                     tank.units,
-                    tank.courses.len(),
+                    plural(tank.courses.len(), "course"),
                     tank.diameter.0,
                     tank.units.length_unit()
                 );
@@ -121,6 +168,20 @@ pub fn render_text(items: &[Checked]) -> String {
                 if !screening.counts.is_empty() {
                     let _ = writeln!(o, "  readings per course and date:");
                     count_table(screening, &mut o);
+                }
+                if !scans.is_empty() {
+                    let _ = writeln!(
+                        o,
+                        "  {} grid scan{}:",
+                        scans.len(),
+                        if scans.len() == 1 { "" } else { "s" },
+                    );
+                    for sc in scans {
+                        let line = format!("{}: {}", sc.file, scan_line(sc, Some(tank.units)));
+                        for line in bullet(&line).lines() {
+                            let _ = writeln!(o, "  {line}");
+                        }
+                    }
                 }
                 if !missing.is_empty() {
                     let _ = writeln!(o, "  courses without any reading: {}", missing.join(", "));
@@ -164,6 +225,27 @@ pub fn render_text(items: &[Checked]) -> String {
                      checks were not made"
                 );
             }
+            Checked::Scan { scan, tank } => {
+                ok += 1;
+                let _ = writeln!(o, "{b}{}{b:#}: grid scan", scan.file);
+                let line = scan_line(scan, tank.as_ref().map(|t| t.1));
+                o.push_str(&crate::report::text::wrap(&line, 92, "  "));
+                match tank {
+                    Some((id, _)) => {
+                        let _ = writeln!(
+                            o,
+                            "  checked against tank {id} (course, elevations, nominal thickness)"
+                        );
+                    }
+                    None => {
+                        let _ = writeln!(
+                            o,
+                            "  no tank.toml above this file: course range, units and nominal-based \
+                             checks were not made"
+                        );
+                    }
+                }
+            }
             Checked::Failed { path, .. } => {
                 let _ = writeln!(
                     o,
@@ -180,7 +262,22 @@ pub fn render_text(items: &[Checked]) -> String {
         items.len(),
         if items.len() == 1 { "" } else { "s" }
     );
+    o.push('\n');
+    o.push_str(&crate::report::text::wrap(
+        &format!("Caution: {}", crate::report::caution::CAUTION),
+        crate::report::text::WRAP,
+        "",
+    ));
     o
+}
+
+/// "1 course", "3 courses".
+pub fn plural(n: usize, word: &str) -> String {
+    if n == 1 {
+        format!("{n} {word}")
+    } else {
+        format!("{n} {word}s")
+    }
 }
 
 fn delimiter_name(d: char) -> &'static str {
@@ -208,6 +305,7 @@ struct JsonChecked {
     counts: Vec<JsonCount>,
     suspects: Vec<String>,
     error: Option<String>,
+    scans: Vec<String>,
 }
 
 /// JSON text: one record per path.
@@ -221,6 +319,7 @@ pub fn render_json(items: &[Checked]) -> String {
                 files,
                 screening,
                 remarks,
+                scans,
             } => JsonChecked {
                 path: dir.clone(),
                 ok: true,
@@ -235,6 +334,7 @@ pub fn render_json(items: &[Checked]) -> String {
                     .map(ToString::to_string)
                     .collect(),
                 error: None,
+                scans: scans.iter().map(|x| x.file.clone()).collect(),
             },
             Checked::File { info, screening } => JsonChecked {
                 path: info.path.clone(),
@@ -245,6 +345,18 @@ pub fn render_json(items: &[Checked]) -> String {
                 counts: counts(screening),
                 suspects: Vec::new(),
                 error: None,
+                scans: Vec::new(),
+            },
+            Checked::Scan { scan, tank } => JsonChecked {
+                path: scan.file.clone(),
+                ok: true,
+                tank_id: tank.as_ref().map(|t| t.0.clone()),
+                files: Vec::new(),
+                readings: scan.readings(),
+                counts: Vec::new(),
+                suspects: Vec::new(),
+                error: None,
+                scans: vec![scan.file.clone()],
             },
             Checked::Failed { path, message } => JsonChecked {
                 path: path.clone(),
@@ -255,10 +367,20 @@ pub fn render_json(items: &[Checked]) -> String {
                 counts: Vec::new(),
                 suspects: Vec::new(),
                 error: Some(message.clone()),
+                scans: Vec::new(),
             },
         })
         .collect();
-    let mut s = serde_json::to_string_pretty(&records).unwrap_or_default();
+    #[derive(Serialize)]
+    struct Document {
+        paths: Vec<JsonChecked>,
+        caution: &'static str,
+    }
+    let doc = Document {
+        paths: records,
+        caution: crate::report::caution::CAUTION,
+    };
+    let mut s = serde_json::to_string_pretty(&doc).unwrap_or_default();
     s.push('\n');
     s
 }

@@ -9,7 +9,7 @@ use crate::report::view::View;
 pub fn courses_csv(a: &Assessment, v: &View) -> Result<String, csv::Error> {
     let mut w = csv::Writer::from_writer(Vec::new());
     for c in &a.courses {
-        w.serialize(course(c, v))?;
+        w.serialize(course(a, c, v))?;
     }
     let bytes = w
         .into_inner()

@@ -39,11 +39,18 @@ pub fn render_text(a: &Assessment, scenarios: &[FillScenario], years: f64, v: &V
         } else {
             "what-if"
         };
+        let who = |f: crate::model::result::FillLimit, area: Option<usize>| {
+            if area.is_some() {
+                format!("{} scan", f.course)
+            } else {
+                f.course.to_string()
+            }
+        };
         let now = s.now.map_or(("-".to_string(), "-".to_string()), |f| {
-            (format!("{:.2}", v.len(f.level)), f.course.to_string())
+            (format!("{:.2}", v.len(f.level)), who(f, s.now_area))
         });
         let later = s.later.map_or(("-".to_string(), "-".to_string()), |f| {
-            (format!("{:.2}", v.len(f.level)), f.course.to_string())
+            (format!("{:.2}", v.len(f.level)), who(f, s.later_area))
         });
         let _ = writeln!(
             o,
@@ -63,6 +70,26 @@ pub fn render_text(a: &Assessment, scenarios: &[FillScenario], years: f64, v: &V
         v.len_text(a.tank.max_fill_height),
         v.len_text(a.tank.shell_height())
     );
+    let mut scans: Vec<usize> = scenarios
+        .iter()
+        .flat_map(|s| [s.now_area, s.later_area])
+        .flatten()
+        .collect();
+    scans.sort_unstable();
+    scans.dedup();
+    for i in scans {
+        if let Some(x) = a.areas.get(i) {
+            o.push_str(&wrap(
+                &format!(
+                    "'N scan': set by the scanned area of course N, {} (local form, API 653 \
+                     4.3.2).",
+                    x.scan.file
+                ),
+                WRAP,
+                "",
+            ));
+        }
+    }
     if scenarios
         .iter()
         .any(|s| s.later.is_none() && s.now.is_some())
@@ -86,6 +113,17 @@ struct JsonScenario {
     max_fill_height_later: Option<f64>,
     governing_course_later: Option<u32>,
     courses: Vec<JsonCourseFill>,
+    governing_scan: Option<String>,
+    governing_scan_later: Option<String>,
+    areas: Vec<JsonAreaFill>,
+}
+
+#[derive(Serialize)]
+struct JsonAreaFill {
+    file: String,
+    course: u32,
+    max_fill_height: f64,
+    max_fill_height_later: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -106,7 +144,12 @@ struct JsonFill {
     caution: &'static str,
 }
 
-fn scenario(s: &FillScenario, v: &View) -> JsonScenario {
+fn scan_file(a: &Assessment, area: Option<usize>) -> Option<String> {
+    area.and_then(|i| a.areas.get(i))
+        .map(|x| x.scan.file.clone())
+}
+
+fn scenario(a: &Assessment, s: &FillScenario, v: &View) -> JsonScenario {
     JsonScenario {
         specific_gravity: s.specific_gravity,
         stored_product: s.stored_product,
@@ -123,6 +166,21 @@ fn scenario(s: &FillScenario, v: &View) -> JsonScenario {
                 max_fill_height_later: c.later.map(|l| sig6(v.len(l.value))),
             })
             .collect(),
+        governing_scan: scan_file(a, s.now_area),
+        governing_scan_later: scan_file(a, s.later_area),
+        areas: s
+            .areas
+            .iter()
+            .filter_map(|f| {
+                let x = a.areas.get(f.area)?;
+                Some(JsonAreaFill {
+                    file: x.scan.file.clone(),
+                    course: x.scan.course,
+                    max_fill_height: sig6(v.len(f.now.calc.value)),
+                    max_fill_height_later: f.later.map(|l| sig6(v.len(l.calc.value))),
+                })
+            })
+            .collect(),
     }
 }
 
@@ -134,7 +192,7 @@ pub fn render_json(a: &Assessment, scenarios: &[FillScenario], years: f64, v: &V
         units: crate::report::json::units(v),
         years: sig6(years),
         operating_fill_height: sig6(v.len(a.tank.max_fill_height)),
-        scenarios: scenarios.iter().map(|s| scenario(s, v)).collect(),
+        scenarios: scenarios.iter().map(|s| scenario(a, s, v)).collect(),
         caution: CAUTION,
     };
     let mut s = serde_json::to_string_pretty(&doc).unwrap_or_default();
@@ -151,10 +209,17 @@ struct CsvRow {
     max_fill_height_later: Option<f64>,
     governing_course_later: Option<u32>,
     years: f64,
+    governing_scan: Option<String>,
+    governing_scan_later: Option<String>,
 }
 
 /// CSV text: one row per specific gravity.
-pub fn render_csv(scenarios: &[FillScenario], years: f64, v: &View) -> Result<String, csv::Error> {
+pub fn render_csv(
+    a: &Assessment,
+    scenarios: &[FillScenario],
+    years: f64,
+    v: &View,
+) -> Result<String, csv::Error> {
     let mut w = csv::Writer::from_writer(Vec::new());
     for s in scenarios {
         w.serialize(CsvRow {
@@ -165,6 +230,8 @@ pub fn render_csv(scenarios: &[FillScenario], years: f64, v: &View) -> Result<St
             max_fill_height_later: s.later.map(|f| sig6(v.len(f.level))),
             governing_course_later: s.later.map(|f| f.course),
             years: sig6(years),
+            governing_scan: scan_file(a, s.now_area),
+            governing_scan_later: scan_file(a, s.later_area),
         })?;
     }
     let bytes = w

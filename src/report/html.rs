@@ -12,7 +12,7 @@
 use std::fmt::Write as _;
 
 use crate::calc::life::{IntervalBasis, IntervalCalc, IntervalKind, RemainingLife, Status};
-use crate::calc::rates::{GoverningRate, RateCalc, RegressionCalc};
+use crate::calc::rates::{GoverningRate, RateCalc, RateUnavailable, RegressionCalc};
 use crate::calc::shell::{FillHeightCalc, TminCalc};
 use crate::calc::stress::{AllowableStress, StressRule};
 use crate::calc::units::UnitSystem;
@@ -22,7 +22,8 @@ use crate::model::tank::{Material, RateBasis, ThicknessBasis};
 use crate::report::caution::CAUTION;
 use crate::report::chart::Chart;
 use crate::report::folder::ReportContext;
-use crate::report::verdict::{interval_text, sg_text, verdict_sentences};
+use crate::report::text::{extreme_value_lines, local_area_lines, shell_checks};
+use crate::report::verdict::{interval_text, scan_name, sg_text, verdict_sentences};
 use crate::report::view::View;
 
 /// Escapes text for HTML element content and quoted attribute values.
@@ -70,7 +71,7 @@ pub fn render(
         STYLE
     );
     masthead(&mut o, a, v, name.as_deref(), ctx);
-    verdict(&mut o, a, v);
+    verdict(&mut o, a, s, v);
     inputs(&mut o, a, v, ctx);
     results(&mut o, a, v);
     figures(&mut o, s, v, charts);
@@ -135,21 +136,32 @@ enum Standing {
     Act,
 }
 
-fn level_text(l: FillLimit, a: &Assessment, v: &View) -> String {
-    let shell = a.tank.shell_height();
-    if l.level.0 >= shell.0 {
-        format!(
-            "{} (the full shell; course {} alone would allow {})",
-            v.len_text(shell),
-            l.course,
-            v.len_text(l.level)
-        )
-    } else {
-        format!("{} (set by course {})", v.len_text(l.level), l.course)
+/// Who sets a limit: a course, or a scanned area on a course.
+fn setter(course: u32, area: Option<usize>, a: &Assessment) -> String {
+    match area.and_then(|i| a.areas.get(i)) {
+        Some(x) => format!(
+            "the scanned area on course {course} ({})",
+            scan_name(&x.scan.file)
+        ),
+        None => format!("course {course}"),
     }
 }
 
-fn verdict(o: &mut String, a: &Assessment, v: &View) {
+fn level_text(l: FillLimit, area: Option<usize>, a: &Assessment, v: &View) -> String {
+    let shell = a.tank.shell_height();
+    let who = setter(l.course, area, a);
+    if l.level.0 >= shell.0 {
+        format!(
+            "{} (the full shell; {who} alone would allow {})",
+            v.len_text(shell),
+            v.len_text(l.level)
+        )
+    } else {
+        format!("{} (set by {who})", v.len_text(l.level))
+    }
+}
+
+fn verdict(o: &mut String, a: &Assessment, series: &ReportSeries, v: &View) {
     let s = &a.summary;
     let op = a.tank.max_fill_height;
     let sg = sg_text(a.tank.specific_gravity);
@@ -188,6 +200,18 @@ fn verdict(o: &mut String, a: &Assessment, v: &View) {
                 v.len_text(op)
             ),
         )
+    } else if restricted_next {
+        (
+            Standing::Watch,
+            format!(
+                "Fit for service now, but the operating level of {} will not be allowed at \
+                 the next UT survey{}: plan a repair or a lower fill height.",
+                v.len_text(op),
+                s.next_ut_inspection
+                    .map(|d| format!(" ({d})"))
+                    .unwrap_or_default()
+            ),
+        )
     } else if !monitor.is_empty() {
         (
             Standing::Watch,
@@ -197,13 +221,6 @@ fn verdict(o: &mut String, a: &Assessment, v: &View) {
                 list(&monitor),
                 if monitor.len() == 1 { "has" } else { "have" }
             ),
-        )
-    } else if restricted_next {
-        (
-            Standing::Watch,
-            "Fit for service now; the operating level will not be allowed at the next UT \
-             survey."
-                .to_string(),
         )
     } else {
         (
@@ -257,10 +274,21 @@ fn verdict(o: &mut String, a: &Assessment, v: &View) {
         _ => "Not projected: no corrosion rate is known (one survey, no in-service date)."
             .to_string(),
     };
+    // The operating level stops being allowed before the governing course retires
+    // when a scanned area limits it first.
+    let until = match series.fill_outlook.operating_level_until {
+        Some(u) if u.area.is_some() && u.date <= series.horizon => format!(
+            "The operating level of {} is allowed until about {} ({}). {until}",
+            v.len_text(op),
+            u.date.format("%Y-%m"),
+            setter(u.course, u.area, a)
+        ),
+        _ => until,
+    };
     let level = match s.max_fill_height {
         None => "Not computed: no course has readings.".to_string(),
         Some(now) => {
-            let mut t = format!("Now {}.", level_text(now, a, v));
+            let mut t = format!("Now {}.", level_text(now, s.max_fill_height_area, a, v));
             if let Some(next) = s.max_fill_height_next {
                 let _ = write!(
                     t,
@@ -268,7 +296,7 @@ fn verdict(o: &mut String, a: &Assessment, v: &View) {
                     s.next_ut_inspection
                         .map(|d| format!(" ({d})"))
                         .unwrap_or_default(),
-                    level_text(next, a, v)
+                    level_text(next, s.max_fill_height_next_area, a, v)
                 );
             }
             let _ = write!(t, " Operating maximum {}.", v.len_text(op));
@@ -528,7 +556,8 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
             n(v.thk(c.t_min.value), td),
             k.and_then(|k| k.rate_value())
                 .map_or_else(dash, |r| n(v.rate(r), v.rate_decimals())),
-            k.and_then(|k| k.rate.map(|r| r.used.name())).unwrap_or("-"),
+            k.and_then(|k| k.rate.map(|r| r.basis.name()))
+                .unwrap_or("-"),
             k.map_or_else(dash, |k| life_text(k.remaining_life)),
             k.and_then(|k| k.retirement_date)
                 .map_or_else(dash, |d| d.format("%Y-%m").to_string()),
@@ -549,9 +578,60 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
          the shell, {}, it does not limit); \"meets t_min\" is the date the governing rate \
          brings t_actual down to t_min. Status: below t_min; monitor = under 10 years of \
          remaining life; ok. The same numbers are in courses.csv and result.json beside this \
-         page.</p>\n</section>",
+         page.</p>",
         v.len_text(shell)
     );
+    if !a.areas.is_empty() {
+        let _ = writeln!(
+            o,
+            "<table class=\"num\">\n<caption>Scanned local thin areas (API 653 4.3.2; the \
+             working is in section 7)</caption>\n<thead><tr><th>Scan</th><th>Course</th>\
+             <th>Date</th><th>Rules at the operating level</th><th>Allowable level now</th>\
+             <th>… at next UT</th></tr>\n<tr class=\"units\"><th></th><th></th><th></th><th></th>\
+             <th>{lu}</th><th>{lu}</th></tr></thead>\n<tbody>"
+        );
+        for x in &a.areas {
+            let rules = match x.acceptable {
+                Some(true) => "<span class=\"badge ok\">pass</span>".to_string(),
+                Some(false) => format!(
+                    "<span class=\"badge below\">fail</span> {}",
+                    esc(&x.failed_rules().join(", "))
+                ),
+                None => "<span class=\"badge none\">t1 not computed</span>".to_string(),
+            };
+            let limit = |l: Option<&crate::calc::area::AreaLimit>| {
+                l.map_or("-".to_string(), |l| {
+                    format!("{} ({})", n(v.len(l.calc.value), 2), l.kind.name())
+                })
+            };
+            let _ = writeln!(
+                o,
+                "<tr><td class=\"text\">{}</td><td>{}</td><td>{}</td><td class=\"text\">{rules}</td>\
+                 <td>{}</td><td>{}</td></tr>",
+                esc(&scan_name(&x.scan.file)),
+                x.scan.course,
+                x.scan.date,
+                limit(Some(&x.max_fill_height)),
+                limit(x.max_fill_height_next.as_ref())
+            );
+        }
+        o.push_str("</tbody>\n</table>\n");
+    }
+    let checks = plain(&shell_checks(a, v));
+    if !checks.trim().is_empty() {
+        let _ = writeln!(o, "<p class=\"note\">{}</p>", esc(checks.trim()));
+    }
+    o.push_str("</section>\n");
+}
+
+/// A text block without its first line (the heading the page shows itself).
+fn without_heading(text: &str) -> String {
+    text.lines().skip(1).collect::<Vec<_>>().join("\n")
+}
+
+/// Text output without its terminal styles (bold, colours).
+fn plain(text: &str) -> String {
+    anstream::adapter::strip_str(text).to_string()
 }
 
 /// What each chart shows and how to read it.
@@ -762,6 +842,28 @@ fn derivations(o: &mut String, a: &Assessment) {
     for c in &a.courses {
         course_working(o, a, c, &f);
     }
+    let own = View::new(a.tank.units, None);
+    if !a.areas.is_empty() {
+        let _ = writeln!(
+            o,
+            "<article class=\"course-calc\">\n<h3>Scanned local thin areas (grid scans; API 653 \
+             4.3.2 with the local t_min of 4.3.3.1, no one-foot offset)</h3>\n<pre \
+             class=\"working\">{}</pre>\n<p class=\"note\">Source: API 653 4.3.2.1 and \
+             4.3.2.2 (averaging length, t1, t2, pits) with the local t_min of 4.3.3.1, from \
+             memory of the clauses; each rule inverted for the liquid level it allows.</p>\n\
+             </article>",
+            esc(&without_heading(&plain(&local_area_lines(a, &own))))
+        );
+    }
+    if let Some(ev) = extreme_value_lines(a, &own) {
+        let _ = writeln!(
+            o,
+            "<article class=\"course-calc\">\n<h3>Thinnest spot where nobody measured (extreme \
+             values, ASTM G16 practice; estimates only)</h3>\n\
+             <pre class=\"working\">{}</pre>\n</article>",
+            esc(&without_heading(&plain(&ev)))
+        );
+    }
     tank_working(o, a, &f);
     o.push_str("</section>\n");
 }
@@ -937,7 +1039,7 @@ fn governing_working(r: &GoverningRate, k: &CourseCondition, f: &Fmt) -> String 
     let ru = f.ru();
     let lt = k.long_term.map(|x| x.rate.0);
     let st = k.short_term.map(|x| x.rate.0);
-    let mut s = match r.used {
+    let mut s = match r.basis {
         RateBasis::Conservative => match (lt, st) {
             (Some(l), Some(s)) => format!(
                 "conservative: N = max(LT, ST) = max({}, {})",
@@ -960,13 +1062,6 @@ fn governing_working(r: &GoverningRate, k: &CourseCondition, f: &Fmt) -> String 
         );
     } else {
         let _ = write!(s, " = <b>{} {ru}</b>", f.rate(r.value.0));
-    }
-    if r.fallback.is_some() {
-        let _ = write!(
-            s,
-            " (\"{}\" was asked for but cannot be computed; the conservative rate is used)",
-            r.requested.name()
-        );
     }
     s
 }
@@ -1145,9 +1240,21 @@ fn course_working(o: &mut String, a: &Assessment, c: &CourseResult, f: &Fmt) {
     calc_row(
         o,
         "Governing rate N",
-        &k.rate.map_or("no rate can be computed".to_string(), |r| {
-            governing_working(&r, k, f)
-        }),
+        &k.rate.map_or_else(
+            || {
+                match k.rate_missing {
+                    Some(RateUnavailable::TooFewSurveysForRegression) => {
+                        "the chosen regression basis needs three or more surveys: no rate"
+                    }
+                    Some(RateUnavailable::TooFewSurveys) => {
+                        "needs two surveys, or one survey and the in-service date: no rate"
+                    }
+                    None => "no rate can be computed",
+                }
+                .to_string()
+            },
+            |r| governing_working(&r, k, f),
+        ),
         "rate basis of tank.toml; conservative = API 510 / 570 practice (from memory); a \
          negative rate is scatter, taken as 0",
     );
@@ -1217,12 +1324,17 @@ fn tank_working(o: &mut String, a: &Assessment, f: &Fmt) {
         &gov,
         "this project's rule (formats.md)",
     );
-    let level = |l: Option<FillLimit>| {
+    let over = if a.areas.is_empty() {
+        "measured courses"
+    } else {
+        "measured courses and scanned areas"
+    };
+    let level = |l: Option<FillLimit>, area: Option<usize>| {
         l.map_or("not computed".to_string(), |l| {
             format!(
-                "least over measured courses = <b>{} {lu}</b> (course {}){}",
+                "least over {over} = <b>{} {lu}</b> ({}){}",
                 f.len(l.level.0),
-                l.course,
+                esc(&setter(l.course, area, a)),
                 if l.level.0 >= a.tank.shell_height().0 {
                     format!(
                         "; above the top of the shell ({} {lu}), which is the limit",
@@ -1237,13 +1349,14 @@ fn tank_working(o: &mut String, a: &Assessment, f: &Fmt) {
     calc_row(
         o,
         "Allowable liquid level now",
-        &level(s.max_fill_height),
-        "API 653 4.3.3.1 solved for the liquid level, least over courses",
+        &level(s.max_fill_height, s.max_fill_height_area),
+        "API 653 4.3.3.1 solved for the liquid level (courses); API 653 4.3.2 rules \
+         solved for it (areas); the least",
     );
     calc_row(
         o,
         "… at the next UT survey",
-        &level(s.max_fill_height_next),
+        &level(s.max_fill_height_next, s.max_fill_height_next_area),
         "as above, after the UT interval at each course's rate",
     );
     let interval = |i: &crate::model::result::TankInterval,
@@ -1383,6 +1496,8 @@ table.working th[scope=row] { text-align: left; font-weight: bold; width: 11em; 
 table.working thead th { text-align: left; }
 td.working { font-variant-numeric: tabular-nums; }
 td.source { color: var(--muted); font-size: 12px; width: 15em; }
+pre.working { font: 12px/1.4 "DejaVu Sans Mono", Menlo, Consolas, monospace; background: var(--band);
+  border: 1px solid var(--rule); padding: 8px 10px; white-space: pre-wrap; }
 .caution { border: 1px solid var(--rule); background: var(--band); padding: 10px 14px; }
 .signatures { display: flex; flex-wrap: wrap; gap: 0 32px; }
 table.sign { flex: 1 1 300px; }
@@ -1401,6 +1516,7 @@ table.sign td.signature { height: 4em; }
   section { margin: 14px 0; }
   h2, h3 { break-after: avoid; page-break-after: avoid; }
   table { font-size: 8.5pt; }
+  pre.working { font-size: 7.5pt; }
   thead { display: table-header-group; }
   tr, .verdict, dl.answers div, article.course-calc, .signatures, #sign-off, table.results,
   table.kv, table.files, table.sign { break-inside: avoid; page-break-inside: avoid; }

@@ -40,6 +40,31 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
         ));
     }
 
+    // Scanned areas.
+    for area in &a.areas {
+        let name = scan_name(&area.scan.file);
+        let which = format!("The scanned area on course {} ({name})", area.scan.course);
+        out.push(match area.acceptable {
+            Some(true) => format!(
+                "{which} meets the local-area rules of API 653 4.3.2 with the corrosion expected \
+                 by the next inspection."
+            ),
+            Some(false) => {
+                let failed = area.failed_rules();
+                format!(
+                    "{which} does not meet the {} rule{} of API 653 4.3.2 at {level} with the \
+                     corrosion expected by the next inspection.",
+                    join_and(&failed.iter().map(|s| s.to_string()).collect::<Vec<_>>()),
+                    if failed.len() == 1 { "" } else { "s" }
+                )
+            }
+            None => format!(
+                "{which} could not be averaged (no window with half its cells measured): its \
+                 t1 rule is not decided."
+            ),
+        });
+    }
+
     // Life.
     match (s.governing_course, s.remaining_life) {
         (Some(n), Some(life)) => {
@@ -47,7 +72,7 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
             let k = c.and_then(|c| c.condition.as_ref());
             let rate = k
                 .and_then(|k| k.rate)
-                .map(|r| format!("{} ({} rate)", v.rate_text(r.value), r.used.name()))
+                .map(|r| format!("{} ({} rate)", v.rate_text(r.value), r.basis.name()))
                 .unwrap_or_default();
             match life {
                 RemainingLife::Years(y) if y <= 0.0 => {
@@ -72,36 +97,67 @@ pub fn verdict_sentences(a: &Assessment, v: &View) -> Vec<String> {
                 RemainingLife::Unknown => {}
             }
         }
-        _ => out.push(
-            "No corrosion rate is known (a single survey and no in-service date): remaining \
-             life cannot be projected."
-                .to_string(),
-        ),
+        _ => {
+            let any_rate = a
+                .courses
+                .iter()
+                .any(|c| c.condition.as_ref().is_some_and(|k| k.rate.is_some()));
+            out.push(if any_rate {
+                "No measurable corrosion on any course with a known rate (governing rates 0): \
+                 remaining life is not limited by corrosion."
+                    .to_string()
+            } else {
+                "No governing corrosion rate is known (see the warnings): remaining life \
+                 cannot be projected."
+                    .to_string()
+            });
+        }
     }
 
     // Fill height.
     if let Some(now) = s.max_fill_height {
         let max = a.tank.max_fill_height;
         let shell = a.tank.shell_height();
-        let limit = |l: crate::model::result::FillLimit| {
+        let limit = |l: crate::model::result::FillLimit, area: Option<usize>, next: bool| {
+            let who = match area.and_then(|i| a.areas.get(i)) {
+                Some(x) => {
+                    let rule = if next {
+                        x.max_fill_height_next.as_ref()
+                    } else {
+                        Some(&x.max_fill_height)
+                    };
+                    format!(
+                        "the scanned area on course {} ({}{})",
+                        l.course,
+                        scan_name(&x.scan.file),
+                        rule.map_or(String::new(), |r| format!(", {} rule", r.kind.name()))
+                    )
+                }
+                None => format!("course {}", l.course),
+            };
             if l.level.0 >= shell.0 {
                 format!(
-                    "the full shell height of {} (course {}, the most limiting, would carry {})",
+                    "the full shell height of {} ({who}, the most limiting, would carry {})",
                     v.len_text(shell),
-                    l.course,
                     v.len_text(l.level)
                 )
             } else {
-                format!("{}, set by course {}", v.len_text(l.level), l.course)
+                format!("{}, set by {who}", v.len_text(l.level))
             }
         };
-        out.push(format!("Allowable liquid level now: {}.", limit(now)));
+        out.push(format!(
+            "Allowable liquid level now: {}.",
+            limit(now, s.max_fill_height_area, false)
+        ));
         if let Some(next) = s.max_fill_height_next {
             let when = s
                 .next_ut_inspection
                 .map(|d| format!(" ({d})"))
                 .unwrap_or_default();
-            out.push(format!("At the next UT survey{when}: {}.", limit(next)));
+            out.push(format!(
+                "At the next UT survey{when}: {}.",
+                limit(next, s.max_fill_height_next_area, true)
+            ));
         }
         if now.level.0 < max.0 {
             out.push(format!(
@@ -165,4 +221,11 @@ fn join_and(parts: &[String]) -> String {
         [one] => one.clone(),
         [init @ .., last] => format!("{} and {last}", init.join(", ")),
     }
+}
+
+/// The file name of a scan, for sentences.
+pub fn scan_name(path: &str) -> String {
+    std::path::Path::new(path)
+        .file_name()
+        .map_or(path.to_string(), |n| n.to_string_lossy().into_owned())
 }

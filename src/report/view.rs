@@ -83,7 +83,10 @@ impl View {
 /// `v` rounded to 6 significant digits: machine outputs keep the precision a check
 /// needs without printing binary noise.
 pub fn sig6(v: f64) -> f64 {
-    if v == 0.0 || !v.is_finite() {
+    if v == 0.0 {
+        return 0.0; // also turns -0.0 into 0.0
+    }
+    if !v.is_finite() {
         return v;
     }
     format!("{v:.5e}").parse().unwrap_or(v)

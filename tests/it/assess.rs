@@ -402,3 +402,112 @@ fn units_option_converts_at_the_edge() {
         0.0005
     ));
 }
+
+/// A rate basis that cannot be computed leaves the rate missing, with the reason
+/// (methods.md s.6: the regression needs 3 or more surveys); it is never replaced by
+/// another basis. Remaining life is then not computed and the UT interval is the
+/// no-rate default of 5 years (API 653 6.3.3).
+#[test]
+fn unavailable_rate_basis_is_missing_not_replaced() {
+    let toml = SMALL_SI_TANK.replace(
+        "in_service_since = 2000-01-01\n",
+        "in_service_since = 2000-01-01\n[assessment]\nrate_basis = \"regression\"\n",
+    );
+    let fx = TankFixture::new(&toml).survey(
+        "s.csv",
+        "date,course,thickness\n2014-06-01,1,9.40\n2024-06-01,1,8.90\n2014-06-01,2,7.70\n\
+         2024-06-01,2,7.60\n2014-06-01,3,5.80\n2024-06-01,3,5.40\n",
+    );
+    let v = json(&strake([
+        "assess",
+        fx.path().to_str().expect("utf-8 path"),
+        "--format",
+        "json",
+    ]));
+    assert!(v["courses"][0]["rate"].is_null());
+    assert!(v["courses"][0]["rate_regression"].is_null());
+    assert!(v["courses"][0]["rate_long_term"].is_number());
+    assert!(v["courses"][0]["remaining_life_years"].is_null());
+    assert!(v["tank"]["governing_course"].is_null());
+    assert_eq!(num(&v, "/tank/ut_interval_years"), 5.0);
+    assert!(v["tank"]["max_fill_height_next"].is_null());
+    assert_eq!(
+        v["warnings"][0],
+        "course 1: rate basis \"regression\" cannot be computed (a regression needs 3 or more \
+         surveys): no governing rate, remaining life not computed; add surveys or choose \
+         rate_basis = \"conservative\""
+    );
+}
+
+/// No measurable corrosion anywhere (every governing rate 0): no course has a finite
+/// remaining life, so none governs (formats.md: the course with the least remaining
+/// life); the intervals take their caps, 15 and 5 years (API 653 6.3).
+#[test]
+fn no_measurable_corrosion_has_no_governing_course() {
+    let fx = TankFixture::new(SMALL_SI_TANK).survey(
+        "s.csv",
+        "date,course,thickness\n2014-06-01,1,9.40\n2024-06-01,1,9.45\n2014-06-01,2,7.70\n\
+         2024-06-01,2,7.70\n2014-06-01,3,5.80\n2024-06-01,3,5.81\n",
+    );
+    let dir = fx.path().to_str().expect("utf-8 path");
+    let v = json(&strake(["assess", dir, "--format", "json"]));
+    assert!(v["tank"]["governing_course"].is_null());
+    assert!(v["tank"]["remaining_life_years"].is_null());
+    assert_eq!(num(&v, "/courses/1/rate"), 0.0);
+    assert_eq!(num(&v, "/tank/ut_interval_years"), 15.0);
+    assert_eq!(num(&v, "/tank/external_interval_years"), 5.0);
+    let text = strake(["assess", dir]);
+    let flat = text.stdout.split_whitespace().collect::<Vec<_>>().join(" ");
+    assert!(
+        flat.contains("No measurable corrosion on any course with a known rate"),
+        "{}",
+        text.stdout
+    );
+}
+
+/// A welded course without a material takes the code's properties for a material
+/// not known (API 653 table 4.1, from memory: Y 205 MPa, T 380 MPa): course 1
+/// S = min(0.80 x 205 = 164, 0.429 x 380 = 163.02) = 163.02 MPa; and says so.
+#[test]
+fn missing_material_uses_the_unknown_defaults() {
+    let toml = SMALL_SI_TANK.replacen("material = \"A36\"\n", "", 1);
+    let fx = TankFixture::new(&toml).survey(
+        "s.csv",
+        "date,course,thickness\n2024-06-01,1,9.0\n2024-06-01,2,7.5\n2024-06-01,3,5.5\n",
+    );
+    let v = json(&strake([
+        "assess",
+        fx.path().to_str().expect("utf-8 path"),
+        "--format",
+        "json",
+    ]));
+    assert!(close(num(&v, "/courses/0/allowable_stress"), 163.02, 1e-9));
+    assert!(close(num(&v, "/courses/1/allowable_stress"), 171.6, 1e-9));
+    assert!(
+        v["warnings"]
+            .to_string()
+            .contains("course 1: no material in tank.toml")
+    );
+}
+
+/// A point id names a location on its course: many survey forms number the points
+/// of every course the same way (N, E, S, W), so the same id on two courses on one
+/// date is two points, not a repeat.
+#[test]
+fn point_ids_are_per_course() {
+    let fx = TankFixture::new(SMALL_SI_TANK).survey(
+        "s.csv",
+        "date,course,point,thickness\n2024-06-01,1,N,9.0\n2024-06-01,1,S,9.2\n\
+         2024-06-01,2,N,7.0\n2024-06-01,2,S,7.1\n2024-06-01,3,N,5.0\n",
+    );
+    let run = strake([
+        "assess",
+        fx.path().to_str().expect("utf-8 path"),
+        "--format",
+        "json",
+    ]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let v = json(&run);
+    assert_eq!(num(&v, "/courses/0/t_actual"), 9.0);
+    assert_eq!(num(&v, "/courses/1/t_actual"), 7.0);
+}

@@ -113,6 +113,11 @@ fn json_summary() {
     ]);
     assert_eq!(run.code, 0);
     let v: serde_json::Value = serde_json::from_str(&run.stdout).expect("JSON");
-    assert_eq!(v[0]["tank_id"], "KR-T07");
-    assert_eq!(v[0]["readings"], 60);
+    assert_eq!(v["paths"][0]["tank_id"], "KR-T07");
+    assert_eq!(v["paths"][0]["readings"], 60);
+    assert!(
+        v["caution"]
+            .as_str()
+            .is_some_and(|c| c.starts_with("Screening aid only."))
+    );
 }

@@ -113,6 +113,9 @@ fn tank(case: &Case, units: UnitSystem) -> (Tank, ReadingSet) {
                     tensile_strength: st(400.0),
                 },
                 joint_efficiency: None,
+                corrosion_allowance: Thickness(0.0),
+                design_stress: None,
+                test_stress: None,
             };
             bottom += h;
             c
@@ -158,6 +161,7 @@ fn tank(case: &Case, units: UnitSystem) -> (Tank, ReadingSet) {
         ReadingSet {
             files: vec!["p.csv".into()],
             readings,
+            scans: Vec::new(),
         },
     )
 }
@@ -274,6 +278,97 @@ proptest! {
             let lb = kb.remaining_life.sort_key();
             prop_assert!(lb <= la, "course {}: {:?} -> {:?}", a.number, ka.remaining_life, kb.remaining_life);
             prop_assert!(kb.status <= ka.status, "status improved");
+        }
+    }
+}
+
+/// A random grid scan for the local-area properties.
+fn grid() -> impl Strategy<Value = (Vec<Vec<Option<f64>>>, f64, f64, Option<f64>)> {
+    (
+        1usize..12,
+        1usize..6,
+        prop::sample::select(vec![25.0, 50.0, 100.0]),
+    )
+        .prop_flat_map(|(rows, cols, pitch)| {
+            (
+                prop::collection::vec(
+                    prop::collection::vec(prop::option::weighted(0.9, 4.0f64..12.0), cols),
+                    rows,
+                ),
+                Just(pitch),
+                0.0f64..2.0,
+                prop::option::of(3.0f64..6.0),
+            )
+        })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(256))]
+
+    /// Local areas (API 653 4.3.2 with the local t_min, methods.md s.4): a thickness
+    /// rule passes exactly when the level the area allows after the same corrosion is
+    /// at or above the operating level; t1 is the least window mean and t2 the least
+    /// valid reading; every window holds at least half valid cells.
+    #[test]
+    fn area_rules_agree_with_area_levels(
+        (cells, pitch, bottom, pit) in grid(),
+        rate in 0.0f64..0.3,
+        years in 0.0f64..15.0,
+        fill in 3.0f64..12.0,
+    ) {
+        use strake::calc::area::{FutureLoss, assess_area};
+        use strake::model::scan::Scan;
+        let scan = Scan {
+            file: "p.csv".into(),
+            course: 1,
+            date: date(2024, 1, 1),
+            bottom_elevation: Length(bottom),
+            row_pitch: Thickness(pitch),
+            column_pitch: Thickness(pitch),
+            pit_threshold: pit.map(Thickness),
+            lines: (1..=cells.len() as u64).collect(),
+            cells: cells.iter().map(|r| r.iter().map(|c| c.map(Thickness)).collect()).collect(),
+            delimiter: ',',
+        };
+        let load = CourseLoad {
+            units: UnitSystem::Si,
+            diameter: Length(30.0),
+            specific_gravity: 0.9,
+            stress: Stress(171.6),
+            joint_efficiency: 1.0,
+            bottom_elevation: Length(0.0),
+        };
+        let future = FutureLoss::new(Some(strake::calc::units::Rate(rate)), years);
+        let Some(a) = assess_area(&scan, load, Length(fill), future) else {
+            // No valid reading at all: nothing to judge.
+            prop_assert!(scan.cells.iter().flatten().flatten().all(|t| scan.is_pit(*t)));
+            return Ok(());
+        };
+        let valid: Vec<f64> = (0..scan.rows())
+            .flat_map(|r| (0..scan.columns()).map(move |c| (r, c)))
+            .filter_map(|(r, c)| scan.valid(r, c).map(|t| t.0))
+            .collect();
+        prop_assert_eq!(a.t2.value.0, valid.iter().copied().fold(f64::INFINITY, f64::min));
+        for w in &a.windows.windows {
+            prop_assert!(2 * w.valid >= w.rows);
+            if let Some(t1) = a.t1_window() {
+                prop_assert!(t1.mean.0 <= w.mean.0);
+            }
+        }
+        let next = a.max_fill_height_next.expect("rate given");
+        let tol = 1e-9 * fill;
+        // Away from the floors, pass <=> level after corrosion >= operating level.
+        let floor_free = next.calc.thickness.0 > 2.5 && !next.calc.below_floor
+            && a.t2_rule.t_min.formula.0 > 2.5;
+        if floor_free {
+            let all_pass = a.t1_rule.is_none_or(|r| r.rule.pass)
+                && a.t2_rule.pass
+                && a.pit_depth_rule.is_none_or(|r| r.pass);
+            if all_pass {
+                prop_assert!(next.calc.value.0 >= fill - tol, "{} < {}", next.calc.value.0, fill);
+            } else {
+                prop_assert!(next.calc.value.0 < fill + tol, "{} >= {}", next.calc.value.0, fill);
+            }
         }
     }
 }

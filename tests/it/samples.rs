@@ -156,3 +156,19 @@ fn readme_outputs_are_current() {
         "README output blocks are stale for: {stale:?} (run STRAKE_BLESS=1 cargo test readme)"
     );
 }
+
+/// The scan example of the README ("Scan CSV") is a valid scan file.
+#[test]
+fn readme_scan_example_reads() {
+    let text = readme();
+    let start = text
+        .find("# Thin patch of course 1")
+        .expect("README shows a scan example");
+    let end = start + text[start..].find("```").expect("example block closed");
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("example.csv");
+    std::fs::write(&path, &text[start..end]).expect("write");
+    let run = strake(["check", path.to_str().expect("utf-8")]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    assert!(run.stdout.contains("grid scan"), "{}", run.stdout);
+}

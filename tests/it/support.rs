@@ -71,6 +71,13 @@ impl TankFixture {
         std::fs::write(surveys.join(name), content).expect("write survey");
         self
     }
+    /// Adds scans/<name> with these bytes.
+    pub fn scan(self, name: &str, content: impl AsRef<[u8]>) -> Self {
+        let scans = self.dir.path().join("scans");
+        std::fs::create_dir_all(&scans).expect("scans dir");
+        std::fs::write(scans.join(name), content).expect("write scan");
+        self
+    }
     /// The folder.
     pub fn path(&self) -> &Path {
         self.dir.path()

@@ -135,6 +135,54 @@ material = "A36"
 
 
 # ---------------------------------------------------------------------------------
+# KR-T12 scan: a grid over a thin patch of the bottom course found beside the water
+# draw-off, between drops D5 (180 deg) and D6 (225 deg), at the 2026 survey. INVENTED:
+# a broad corroded patch (about 1.5 mm deeper than the course around it, in the bottom
+# metre where water settles), three isolated pits and three cells that could not be
+# read. Its own generator state, so the survey files above do not change.
+# ---------------------------------------------------------------------------------
+def scan_t12():
+    rng = random.Random(1213)
+    root = os.path.join(HERE, "kestrel-t12")
+    rows, cols = 20, 12
+    pitch_mm = 50.0
+    bottom_m = 0.10
+    pit_threshold = 10.0
+    pits = {(4, 2): 8.62, (12, 8): 9.35, (7, 10): 9.71}
+    missing = {(19, 0), (19, 1), (18, 0)}
+    grid = []
+    for r in range(rows):
+        z = bottom_m + r * pitch_mm / 1000.0
+        # The course around the patch: thinnest at the floor, thicker upward.
+        base = 13.60 + 1.40 * (z - bottom_m) / 0.95
+        line = []
+        for c in range(cols):
+            if (r, c) in missing:
+                line.append("")
+                continue
+            if (r, c) in pits:
+                line.append(f"{pits[(r, c)]:.2f}")
+                continue
+            depth = 1.45 * math.exp(-((r - 7.0) / 8.0) ** 2 - ((c - 5.0) / 4.0) ** 2)
+            t = base - depth + rng.gauss(0.0, 0.05)
+            line.append(f"{t:.2f}")
+        grid.append(",".join(line))
+    header = [
+        "# INVENTED DEMO DATA: a made-up grid scan of the fictional tank KR-T12.",
+        "# Thin patch of course 1 beside the water draw-off, about 195 deg (between drops D5 and D6).",
+        "# Rows go up from the bottom row at 50 mm; columns go clockwise at 50 mm; readings in mm.",
+        "# Three cells behind a bracket could not be read and are left empty.",
+        "# course = 1",
+        "# date = 2026-05-19",
+        f"# bottom_elevation = {bottom_m:.2f}",
+        f"# row_pitch = {pitch_mm:.0f}",
+        f"# column_pitch = {pitch_mm:.0f}",
+        f"# pit_threshold = {pit_threshold:.1f}",
+    ]
+    write(os.path.join(root, "scans", "2026-c1-draw-off-patch.csv"), "\n".join(header + grid) + "\n")
+
+
+# ---------------------------------------------------------------------------------
 # KR-T03: USC, gasoline, two surveys in one file, average basis.
 # ---------------------------------------------------------------------------------
 def tank_t03():
@@ -267,5 +315,6 @@ nominal_thickness = 6.5
 
 if __name__ == "__main__":
     tank_t12()
+    scan_t12()
     tank_t03()
     tank_t07()

@@ -32,17 +32,21 @@ impl FillOutlookChart<'_> {
     fn legend(&self) -> Vec<LegendEntry> {
         let Inputs { a, s, v } = self.0;
         let o = &s.fill_outlook;
-        let mut e: Vec<LegendEntry> = o
-            .courses
-            .iter()
+        let mut e: Vec<LegendEntry> = self
+            .series()
+            .into_iter()
             .enumerate()
-            .map(|(i, c)| {
+            .map(|(i, (label, _))| {
                 let (stroke, marker) = course_look(i);
-                LegendEntry::line(format!("course {}", c.course), stroke, Some(marker))
+                LegendEntry::line(label, stroke, Some(marker))
             })
             .collect();
         e.push(LegendEntry::line(
-            "tank: least over courses",
+            if o.areas.is_empty() {
+                "tank: least over courses"
+            } else {
+                "tank: least over courses and areas"
+            },
             ENVELOPE,
             None,
         ));
@@ -65,14 +69,34 @@ impl FillOutlookChart<'_> {
         if let Some(u) = o.operating_level_until.filter(|u| u.date <= s.horizon) {
             e.push(LegendEntry::marker(
                 format!(
-                    "operating maximum no longer allowed from about {} (course {})",
+                    "operating maximum no longer allowed from about {} ({})",
                     u.date.format("%Y-%m"),
-                    u.course
+                    if u.area.is_some() {
+                        format!("scanned area, course {}", u.course)
+                    } else {
+                        format!("course {}", u.course)
+                    }
                 ),
                 UNTIL,
             ));
         }
         e
+    }
+
+    /// Every line of the chart but the tank's: each course, then each scanned area,
+    /// with its label and its levels.
+    fn series(&self) -> Vec<(String, &[Option<crate::calc::units::Length>])> {
+        let o = &self.0.s.fill_outlook;
+        o.courses
+            .iter()
+            .map(|c| (format!("course {}", c.course), c.levels.as_slice()))
+            .chain(o.areas.iter().map(|x| {
+                (
+                    format!("scanned area, course {}", x.course),
+                    x.levels.as_slice(),
+                )
+            }))
+            .collect()
     }
 }
 
@@ -103,8 +127,8 @@ impl Figure for FillOutlookChart<'_> {
         let operating = v.len(a.tank.max_fill_height);
         let shell = v.len(a.tank.shell_height());
         let mut ys = vec![operating, shell];
-        for c in &o.courses {
-            ys.extend(c.levels.iter().flatten().map(|l| v.len(*l)));
+        for (_, levels) in self.series() {
+            ys.extend(levels.iter().flatten().map(|l| v.len(*l)));
         }
         let lo = ys.iter().copied().fold(f64::INFINITY, f64::min);
         let hi = ys.iter().copied().fold(f64::NEG_INFINITY, f64::max);
@@ -149,15 +173,15 @@ impl Figure for FillOutlookChart<'_> {
         }
         let xs: Vec<f64> = o.dates.iter().map(|d| year_of(*d)).collect();
         let mut labels: Vec<MarginLabel> = Vec::new();
-        for (i, c) in o.courses.iter().enumerate() {
+        for (i, (label, levels)) in self.series().into_iter().enumerate() {
             let (stroke, marker) = course_look(i);
             let pts: Vec<(i32, i32)> = xs
                 .iter()
-                .zip(&c.levels)
+                .zip(levels)
                 .filter_map(|(x, l)| l.map(|l| m(*x, v.len(l))))
                 .collect();
             pen.line(&pts, &stroke)?;
-            // Markers staggered by course so that they do not sit on one another.
+            // Markers staggered by series so that they do not sit on one another.
             let offset = (i * 3) % MARK_EVERY;
             for (j, p) in pts.iter().enumerate() {
                 if j % MARK_EVERY == offset || pts.len() == 1 {
@@ -166,7 +190,7 @@ impl Figure for FillOutlookChart<'_> {
             }
             if let Some(last) = pts.last() {
                 labels.push(MarginLabel {
-                    text: format!("course {}", c.course),
+                    text: label.replace("scanned area, course", "area, course"),
                     y: last.1,
                     color: INK,
                     marker: Some(marker),

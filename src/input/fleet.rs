@@ -1,0 +1,78 @@
+//! Finds the tank folders of a fleet: every folder below the given one that holds a
+//! tank.toml (the given folder itself included). A tank folder's own subfolders
+//! (surveys/, scans/) are not searched further; hidden folders (name starting with
+//! `.`) are skipped. Symbolic links are followed, and a loop is reported, not walked.
+
+use std::path::{Path, PathBuf};
+
+use super::error::{InputError, InputErrorKind, Location};
+use super::tank_dir::TANK_FILE;
+
+/// What the search found, in path order.
+#[derive(Debug, Default)]
+pub struct FoundTanks {
+    /// Tank folders.
+    pub tanks: Vec<PathBuf>,
+    /// Folders that could not be searched, with the error.
+    pub unreadable: Vec<(PathBuf, InputError)>,
+}
+
+fn io_error(path: &Path, e: std::io::Error) -> InputError {
+    InputError::new(
+        Location::file(path.display().to_string()),
+        InputErrorKind::Io(e),
+    )
+}
+
+/// Every tank folder below `root`.
+pub fn find_tank_dirs(root: &Path) -> Result<FoundTanks, InputError> {
+    let meta = std::fs::metadata(root).map_err(|e| io_error(root, e))?;
+    if !meta.is_dir() {
+        return Err(io_error(
+            root,
+            std::io::Error::new(std::io::ErrorKind::NotADirectory, "not a folder"),
+        ));
+    }
+    let mut found = FoundTanks::default();
+    let mut walk = walkdir::WalkDir::new(root)
+        .follow_links(true)
+        .sort_by_file_name()
+        .into_iter();
+    while let Some(entry) = walk.next() {
+        let entry = match entry {
+            Ok(e) => e,
+            Err(e) => {
+                let path = e.path().unwrap_or(root).to_path_buf();
+                let message = e.to_string();
+                let io = e
+                    .into_io_error()
+                    .unwrap_or_else(|| std::io::Error::other(message));
+                found.unreadable.push((path.clone(), io_error(&path, io)));
+                continue;
+            }
+        };
+        if !entry.file_type().is_dir() {
+            continue;
+        }
+        let hidden = entry.depth() > 0
+            && entry
+                .file_name()
+                .to_str()
+                .is_some_and(|n| n.starts_with('.'));
+        if hidden {
+            walk.skip_current_dir();
+            continue;
+        }
+        if entry.path().join(TANK_FILE).is_file() {
+            found.tanks.push(entry.path().to_path_buf());
+            walk.skip_current_dir();
+        }
+    }
+    if found.tanks.is_empty() && found.unreadable.is_empty() {
+        return Err(InputError::new(
+            Location::file(root.display().to_string()),
+            InputErrorKind::NoTankFolders,
+        ));
+    }
+    Ok(found)
+}
