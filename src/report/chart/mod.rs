@@ -150,7 +150,7 @@ fn encode_png(rgb: &[u8], w: u32, h: u32) -> Result<Vec<u8>, png::EncodingError>
         let mut enc = png::Encoder::new(&mut out, w, h);
         enc.set_color(png::ColorType::Rgb);
         enc.set_depth(png::BitDepth::Eight);
-        enc.set_deflate_compression(png::DeflateCompression::Level(3));
+        enc.set_deflate_compression(png::DeflateCompression::Level(1));
         enc.set_filter(png::Filter::Up);
         enc.set_pixel_dims(Some(png::PixelDimensions {
             xppu: PNG_PIXELS_PER_METRE,
