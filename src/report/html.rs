@@ -387,7 +387,7 @@ fn inputs(o: &mut String, a: &Assessment, v: &View, ctx: ReportContext) {
     o.push_str("</tbody>\n</table>\n");
 
     o.push_str(
-        "<table class=\"num\">\n<caption>Courses (tank.toml)</caption>\n<thead><tr>\
+        "<table class=\"num courses\">\n<caption>Courses (tank.toml)</caption>\n<thead><tr>\
          <th>Course</th><th>Bottom z</th><th>Height</th><th>Nominal</th><th>Material</th>\
          <th>Y</th><th>T</th><th>E</th></tr>\n",
     );
@@ -450,7 +450,33 @@ fn inputs(o: &mut String, a: &Assessment, v: &View, ctx: ReportContext) {
         );
     }
     o.push_str("</tbody>\n</table>\n");
-
+    if !a.areas.is_empty() {
+        let tu = v.to.thickness_unit();
+        o.push_str(
+            "<table class=\"files\">\n<caption>Grid scans read</caption>\n<thead><tr>\
+             <th>File</th><th>Course</th><th>Date</th><th>Grid</th><th>Bottom row</th>\
+             <th>Pit threshold</th></tr></thead>\n<tbody>\n",
+        );
+        for x in &a.areas {
+            let sc = &x.scan;
+            let _ = writeln!(
+                o,
+                "<tr><td class=\"path\">{}</td><td class=\"n\">{}</td><td>{}</td><td>{} rows \
+                 × {} columns, {} × {} {tu} apart</td><td>{}</td><td>{}</td></tr>",
+                esc(&sc.file),
+                sc.course,
+                sc.date,
+                sc.rows(),
+                sc.columns(),
+                n(v.thk(sc.row_pitch), v.thk_decimals()),
+                n(v.thk(sc.column_pitch), v.thk_decimals()),
+                v.len_text(sc.bottom_elevation),
+                sc.pit_threshold
+                    .map_or("none".to_string(), |p| v.thk_text(p))
+            );
+        }
+        o.push_str("</tbody>\n</table>\n");
+    }
     o.push_str("</section>\n");
 }
 
@@ -1519,7 +1545,7 @@ table.sign td.signature { height: 4em; }
   pre.working { font-size: 7.5pt; }
   thead { display: table-header-group; }
   tr, .verdict, dl.answers div, article.course-calc, .signatures, #sign-off, table.results,
-  table.kv, table.files, table.sign { break-inside: avoid; page-break-inside: avoid; }
+  table.kv, table.files, table.sign, table.courses { break-inside: avoid; page-break-inside: avoid; }
   caption { break-after: avoid; page-break-after: avoid; }
   #charts, #working { break-before: page; page-break-before: always; }
   figure { break-inside: avoid; page-break-inside: avoid; margin: 0 0 8mm; }
