@@ -69,11 +69,13 @@ impl History<'_> {
                 None,
             ));
         }
-        e.push(LegendEntry::line(
-            "projection at the governing rate",
-            PROJECTION,
-            None,
-        ));
+        if s.courses.iter().any(|c| c.projection.is_some()) {
+            e.push(LegendEntry::line(
+                "projection at the governing rate",
+                PROJECTION,
+                None,
+            ));
+        }
         e.push(LegendEntry::line("t_min", T_MIN, None));
         if s.courses
             .iter()
