@@ -242,7 +242,11 @@ fn parse_number(s: &str) -> Result<f64, String> {
 
 fn parse_sg(s: &str) -> Result<f64, String> {
     let v = parse_number(s)?;
-    if v > 0.0 && v <= crate::calc::constants::MAX_SPECIFIC_GRAVITY {
+    if v > 0.0 && v < crate::input::limits::MIN_SPECIFIC_GRAVITY {
+        Err(format!(
+            "{v} is below 0.3, lighter than any stored liquid (water = 1.0): a typing slip?"
+        ))
+    } else if v > 0.0 && v <= crate::calc::constants::MAX_SPECIFIC_GRAVITY {
         Ok(v)
     } else {
         Err(format!(

@@ -1,5 +1,7 @@
 //! `strake assess TANK_DIR [--out [DIR]] [--stamp]`.
 
+use std::io::Write as _;
+
 use super::{Global, display, load_and_assess, today};
 use crate::calc::series::report_series;
 use crate::cli::{AssessArgs, Format};
@@ -41,12 +43,19 @@ pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
         }
     };
     write::print(&out, g.color).map_err(Error::Output)?;
+    if g.format == Format::Csv {
+        // CSV rows hold courses only: the warnings go to standard error, one a line.
+        write::warnings_to_stderr(&a.warnings).map_err(Error::Output)?;
+    }
     if let Some((dir, count)) = written {
-        eprintln!(
+        let mut err = std::io::stderr().lock();
+        writeln!(
+            err,
             "report: {} ({count} files: index.html, 4 PNG charts, courses.csv, points.csv, \
              result.json)",
             display(&dir.join("index.html"))
-        );
+        )
+        .map_err(Error::Output)?;
     }
     if args.fail_below_minimum && !a.summary.below_minimum.is_empty() {
         Ok(Outcome::BelowMinimum)

@@ -81,20 +81,33 @@ pub enum InputErrorKind {
     /// A fleet folder without any tank folder below it.
     #[error("no tank folder (a folder holding tank.toml) below this folder")]
     NoTankFolders,
+    /// A file given where a tank folder is expected.
+    #[error("not a folder: give the tank folder that holds tank.toml and surveys/*.csv")]
+    NotATankFolder,
     /// A path that is neither a tank folder nor a CSV file.
     #[error("not a tank folder (with tank.toml) nor a .csv file")]
     NotATankOrCsv,
     /// Bytes that are not UTF-8.
-    #[error("{}text is not valid UTF-8 (save the file as UTF-8)", column_prefix(.column))]
+    #[error(
+        "{}{}is not valid UTF-8 text: binary data, or a file saved in another encoding? \
+         (save it as UTF-8)",
+        column_prefix(.column),
+        byte_text(.byte)
+    )]
     NotUtf8 {
         /// Column name, when known.
         column: Option<String>,
+        /// The first byte that is not UTF-8, when known.
+        byte: Option<u8>,
     },
     /// A file with no content.
-    #[error("the file is empty: expected a header row such as \"date,course,thickness\"")]
+    #[error(
+        "the file is empty (or holds only blank and # comment lines): expected a header row \
+         such as \"date,course,thickness\""
+    )]
     EmptyFile,
     /// A header and no data rows.
-    #[error("no readings: the file has a header row only")]
+    #[error("no readings: the file has a header row only, expected one reading per row below it")]
     HeaderOnly,
     /// A required column is absent.
     #[error("missing required column \"{column}\" (the header has: {found})")]
@@ -138,13 +151,62 @@ pub enum InputErrorKind {
     },
     /// A row with the wrong number of fields.
     #[error(
-        "{found} fields, expected {expected} as in the header (check the delimiter and quotes)"
+        "{found} fields, expected {expected} as in the header (check the delimiter and quotes): \
+         \"{row}\""
     )]
     FieldCount {
         /// Fields in the row.
         found: usize,
         /// Fields in the header.
         expected: usize,
+        /// The row as read (shortened).
+        row: String,
+    },
+    /// Every reading of a file far under nominal: a unit mistake.
+    #[error(
+        "every reading of this file ({count}) is under a fifth of its course's nominal \
+         thickness, the first {first} on course {course} (nominal {nominal}): a unit mistake? \
+         {hint}"
+    )]
+    AllThin {
+        /// Readings in the file.
+        count: usize,
+        /// The first reading, as shown.
+        first: String,
+        /// Its course.
+        course: u32,
+        /// Its course's nominal thickness, as shown.
+        nominal: String,
+        /// What to do.
+        hint: &'static str,
+    },
+    /// A header column without a name that holds a value in some row.
+    #[error(
+        "column {position} has no name in the header but holds \"{value}\": name it (e.g. \
+         \"note\") or delete the value"
+    )]
+    UnnamedColumn {
+        /// 1-based position.
+        position: usize,
+        /// The value found.
+        value: String,
+    },
+    /// A quoted value that runs over several lines: a quote not closed, which would
+    /// swallow the rows after it.
+    #[error(
+        "{}a quoted value runs from line {first} to line {last}: a quote not closed? The rows \
+         inside it would be lost; close the quote or remove the line break (\"{value}\")",
+        column_prefix(.column)
+    )]
+    MultiLineValue {
+        /// Column name, when known.
+        column: Option<String>,
+        /// Line where the value starts.
+        first: u64,
+        /// Line where it ends.
+        last: u64,
+        /// The value (shortened).
+        value: String,
     },
     /// A value that does not parse.
     #[error("column \"{column}\": \"{value}\" is not {what} (expected {expected})")]
@@ -256,16 +318,41 @@ pub enum InputErrorKind {
     /// TOML syntax.
     #[error("TOML syntax: {0}")]
     TomlSyntax(String),
+    /// A tank file with nothing in it.
+    #[error(
+        "the file is empty: expected the tank's description (id, units, diameter, \
+         max_fill_height, specific_gravity and one [[course]] table per course)"
+    )]
+    EmptyTankFile,
     /// A required key is absent.
-    #[error("missing required key \"{key}\"{}", table_text(.table))]
+    #[error("missing required key \"{key}\"{}, expected {expected}", table_text(.table))]
     MissingKey {
         /// Key.
         key: &'static str,
         /// Table, when not the top level.
         table: Option<String>,
+        /// What was expected there.
+        expected: String,
+    },
+    /// A tank key written inside a table, below a [table] header.
+    #[error(
+        "key \"{key}\" is inside {table}, where it does not belong: the tank's keys go above \
+         the first [table] or [[course]] header (expected {expected})"
+    )]
+    MisplacedKey {
+        /// Key.
+        key: &'static str,
+        /// The table it is in, as a message names it.
+        table: String,
+        /// What was expected.
+        expected: String,
     },
     /// A key that is not known.
-    #[error("unknown key \"{key}\"{}{}", table_text(.table), suggestion_text(.suggestion))]
+    #[error(
+        "unknown key \"{key}\"{}{}",
+        table_text(.table),
+        suggestion_or_known(.suggestion, .known)
+    )]
     UnknownKey {
         /// Key.
         key: String,
@@ -273,6 +360,8 @@ pub enum InputErrorKind {
         table: Option<String>,
         /// Nearest known key.
         suggestion: Option<String>,
+        /// The known keys of that table.
+        known: String,
     },
     /// A key with a value of the wrong type.
     #[error("{key}: {found} {value}, expected {expected}")]
@@ -305,10 +394,18 @@ fn column_prefix(column: &Option<String>) -> String {
         .unwrap_or_default()
 }
 
-fn suggestion_text(s: &Option<String>) -> String {
-    s.as_ref()
-        .map(|s| format!("; did you mean \"{s}\"?"))
-        .unwrap_or_default()
+fn byte_text(b: &Option<u8>) -> String {
+    match b {
+        Some(b) => format!("byte 0x{b:02X} "),
+        None => "text ".to_string(),
+    }
+}
+
+fn suggestion_or_known(s: &Option<String>, known: &str) -> String {
+    match s {
+        Some(s) => format!("; did you mean \"{s}\"?"),
+        None => format!("; known keys: {known}"),
+    }
 }
 
 fn paren_suggestion(s: &Option<String>) -> String {
@@ -341,9 +438,55 @@ impl InputError {
     }
 }
 
+/// Longest echo of a value from an input file in a message, in characters.
+pub const ECHO_CHARS: usize = 60;
+
+/// A value from an input file as echoed in a message: control characters escaped (so
+/// a message stays one line and prints no terminal codes) and cut to [`ECHO_CHARS`]
+/// characters with "..." (a 10 MB line is never echoed whole).
+pub fn echo(raw: &str) -> String {
+    let long = raw.chars().nth(ECHO_CHARS).is_some();
+    let mut out = String::new();
+    for (n, c) in raw.chars().enumerate() {
+        if long && n >= ECHO_CHARS - 3 {
+            out.push_str("...");
+            break;
+        }
+        if c.is_control() {
+            out.extend(c.escape_default());
+        } else {
+            out.push(c);
+        }
+    }
+    out
+}
+
+/// A number computed from input values, for a message: at most 9 significant digits,
+/// so that sums such as 2.4 x 6 print as 14.4, and an exponent for magnitudes that
+/// would otherwise print hundreds of digits.
+pub fn number_text(v: f64) -> String {
+    if !v.is_finite() {
+        return v.to_string();
+    }
+    let a = v.abs();
+    if a != 0.0 && !(1e-6..1e12).contains(&a) {
+        return format!("{v:e}");
+    }
+    let rounded: f64 = format!("{v:.8e}").parse().unwrap_or(v);
+    rounded.to_string()
+}
+
+/// Longest name for which a nearest known name is sought.
+const NEAREST_MAX_LEN: usize = 64;
+
 /// The known name nearest to `name` (Jaro-Winkler similarity from strsim), when it is
 /// close enough to be a likely typo.
 pub fn nearest<'a>(name: &str, known: impl IntoIterator<Item = &'a str>) -> Option<String> {
+    // No typo of a short name is this long; and the similarity's cost grows with the
+    // length (a 10 MB header line took most of a minute).
+    if name.len() > NEAREST_MAX_LEN {
+        return None;
+    }
     let lower = name.to_ascii_lowercase();
     known
         .into_iter()
@@ -368,10 +511,31 @@ mod tests {
     }
 
     #[test]
+    fn echoes_are_short_and_one_line() {
+        assert_eq!(echo("4,2x"), "4,2x");
+        assert_eq!(echo("9\u{0}\n"), "9\\u{0}\\n");
+        let long = "9".repeat(10_000_000);
+        let e = echo(&long);
+        assert_eq!(e.chars().count(), ECHO_CHARS);
+        assert!(e.ends_with("..."));
+        assert_eq!(echo(&"x".repeat(ECHO_CHARS)), "x".repeat(ECHO_CHARS));
+    }
+
+    #[test]
+    fn numbers_in_messages() {
+        assert_eq!(number_text(2.4 * 6.0), "14.4");
+        assert_eq!(number_text(6.0), "6");
+        assert_eq!(number_text(1e-300), "1e-300");
+        assert_eq!(number_text(1e300), "1e300");
+        assert_eq!(number_text(0.0), "0");
+    }
+
+    #[test]
     fn suggestions() {
         let keys = ["diameter", "max_fill_height", "specific_gravity"];
         assert_eq!(nearest("diamter", keys), Some("diameter".into()));
         assert_eq!(nearest("fill_height", keys), Some("max_fill_height".into()));
         assert_eq!(nearest("zzz", keys), None);
+        assert_eq!(nearest(&"diameter".repeat(1000), keys), None);
     }
 }

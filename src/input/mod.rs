@@ -3,6 +3,7 @@
 
 pub mod error;
 pub mod fleet;
+pub mod limits;
 pub mod scan_csv;
 pub mod survey_csv;
 pub mod tank_dir;

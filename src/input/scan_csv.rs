@@ -19,8 +19,9 @@
 
 use chrono::NaiveDate;
 
+use super::error::echo;
 use super::error::{InputError, InputErrorKind, Location, nearest};
-use super::survey_csv::{BOM, COMMA_HINT, NumberText, example_thickness, read_number, shorten};
+use super::survey_csv::{BOM, COMMA_HINT, NumberText, example_thickness, read_number};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness};
 use crate::model::scan::Scan;
@@ -104,7 +105,10 @@ pub fn read_scan(
         let valid = std::str::from_utf8(&bytes[..offset]).unwrap_or("");
         InputError::new(
             Location::at_offset(path, valid, offset),
-            InputErrorKind::NotUtf8 { column: None },
+            InputErrorKind::NotUtf8 {
+                column: None,
+                byte: bytes.get(offset).copied(),
+            },
         )
     })?;
     if text.trim().is_empty() {
@@ -145,9 +149,10 @@ pub fn read_scan(
                     column: Some(column_of(line, k)),
                 },
                 InputErrorKind::UnknownKey {
-                    key: shorten(k),
+                    key: echo(k),
                     table: Some(HEADER.into()),
                     suggestion: nearest(&lower, SCAN_KEYS.iter().copied()),
+                    known: SCAN_KEYS.join(", "),
                 },
             ));
         };
@@ -180,7 +185,7 @@ pub fn read_scan(
             return Err(InputError::new(
                 Location::line(path, grid_line + i as u64),
                 InputErrorKind::KeyAfterGrid {
-                    key: shorten(k.trim()),
+                    key: echo(k.trim()),
                     grid_line,
                 },
             ));
@@ -202,6 +207,7 @@ pub fn read_scan(
                     InputErrorKind::MissingKey {
                         key,
                         table: Some(HEADER.into()),
+                        expected: scan_key_expected(key).to_string(),
                     },
                 )
             })
@@ -345,7 +351,7 @@ pub fn read_scan(
                     at.clone(),
                     InputErrorKind::BadCell {
                         column: j + 1,
-                        value: shorten(cell),
+                        value: echo(cell),
                         what,
                         expected,
                     },
@@ -478,7 +484,7 @@ fn invalid(path: &str, kl: &KeyLine<'_>, problem: &str) -> InputError {
         },
         InputErrorKind::InvalidValue {
             key: format!("key \"{}\"", kl.key),
-            value: format!("\"{}\"", shorten(kl.value)),
+            value: format!("\"{}\"", echo(kl.value)),
             problem: problem.to_string(),
         },
     )
@@ -554,6 +560,18 @@ fn parse_date(
         ));
     }
     Ok(date)
+}
+
+/// What each header key of a scan holds, for "missing key" messages.
+fn scan_key_expected(key: &str) -> &'static str {
+    match key {
+        "course" => "the course number of the scanned area (1 = bottom course)",
+        "date" => "the date of the scan, as YYYY-MM-DD",
+        "bottom_elevation" => "the elevation of the grid's first row above the tank bottom",
+        "row_pitch" => "the spacing of the grid's rows, in the thickness unit (mm or in)",
+        "column_pitch" => "the spacing of the grid's columns, in the thickness unit (mm or in)",
+        _ => "a value",
+    }
 }
 
 #[cfg(test)]

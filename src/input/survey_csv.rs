@@ -4,10 +4,16 @@
 //!   refused (with the nearest known name suggested).
 //! - `,` `;` and tab delimiters are detected from the header line; with `;` or tab a
 //!   decimal comma is accepted. A UTF-8 byte-order mark and CRLF line ends are
-//!   tolerated; lines starting with `#` are comments; blank lines are skipped.
+//!   tolerated; lines starting with `#` are comments; blank lines and rows of empty
+//!   fields (",,," from a spreadsheet) hold no reading and are skipped.
+//! - The whole file must be UTF-8 (checked first, so the message gives the line and
+//!   column of the first bad byte). A value with a line break in it is refused: in a
+//!   survey it is a quote left open, which would swallow the rows after it.
+//! - A header column without a name is allowed while its cells are empty.
 //! - Unit-suffixed columns (`thickness_mm`, `thickness_in`, `elevation_m`,
 //!   `elevation_ft`) are converted to the tank's units.
-//! - Every row is either handed on or refused with its line, column and value.
+//! - Every row is either handed on or refused with its line, column and value; values
+//!   echoed in messages are shortened and escaped ([`echo`]).
 //!
 //! The csv crate does the CSV; this module only decides what each field means.
 //!
@@ -18,9 +24,10 @@
 use std::cell::RefCell;
 use std::io::{BufRead, BufReader, Read, Seek, SeekFrom};
 
-use chrono::NaiveDate;
+use chrono::{Datelike, NaiveDate};
 
-use super::error::{InputError, InputErrorKind, Location, nearest};
+use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
+use super::limits::{ALL_THIN_FACTOR, EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{Origin, PointNames, PointRef, ReadingRef, ReadingSink};
@@ -132,6 +139,8 @@ struct Columns {
     azimuth: Option<usize>,
     note: Option<usize>,
     names: Vec<String>,
+    /// Columns with an empty header name: their cells must be empty.
+    unnamed: Vec<usize>,
 }
 
 /// The UTF-8 byte-order mark some spreadsheet programs write.
@@ -220,6 +229,122 @@ fn sniff<R: Read>(input: R) -> std::io::Result<(Vec<u8>, BufReader<R>)> {
     Ok((prefix, rest))
 }
 
+/// Where the first byte that is not UTF-8 sits in a file.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct BadByte {
+    /// 1-based line.
+    pub line: u64,
+    /// 1-based column, in characters.
+    pub column: u64,
+    /// The byte.
+    pub byte: u8,
+}
+
+impl std::fmt::Display for BadByte {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(
+            f,
+            "byte 0x{:02X} at {}:{} is not UTF-8",
+            self.byte, self.line, self.column
+        )
+    }
+}
+
+impl std::error::Error for BadByte {}
+
+/// Checks that everything read through it is UTF-8, as it streams past, so that a bad
+/// byte anywhere in a file (a comment line included) is refused with its line and
+/// column. Per buffer: one validation (std, vectorised), one newline count (memchr) and
+/// a character count of the text after the last newline; a character split between
+/// two buffers is carried over.
+struct Utf8Guard<R> {
+    inner: R,
+    /// Bytes of a character begun at the end of the last buffer.
+    pending: Vec<u8>,
+    /// Line of the next byte (1-based).
+    line: u64,
+    /// Characters since the last newline.
+    column: u64,
+}
+
+impl<R: Read> Utf8Guard<R> {
+    fn new(inner: R) -> Self {
+        Utf8Guard {
+            inner,
+            pending: Vec::new(),
+            line: 1,
+            column: 0,
+        }
+    }
+
+    /// Counts lines and columns over valid text.
+    fn advance(&mut self, text: &[u8]) {
+        let newlines = memchr::memchr_iter(b'\n', text).count() as u64;
+        let tail = match memchr::memrchr(b'\n', text) {
+            Some(i) => {
+                self.line += newlines;
+                self.column = 0;
+                &text[i + 1..]
+            }
+            None => text,
+        };
+        self.column += tail.iter().filter(|&&b| (b & 0xC0) != 0x80).count() as u64;
+    }
+
+    fn bad(&self, byte: u8) -> std::io::Error {
+        std::io::Error::new(
+            std::io::ErrorKind::InvalidData,
+            BadByte {
+                line: self.line,
+                column: self.column + 1,
+                byte,
+            },
+        )
+    }
+}
+
+/// The bad byte behind a csv error, if that is what it is.
+fn bad_byte_of(e: &csv::Error) -> Option<BadByte> {
+    match e.kind() {
+        csv::ErrorKind::Io(io) => io.get_ref()?.downcast_ref::<BadByte>().copied(),
+        _ => None,
+    }
+}
+
+impl<R: Read> Read for Utf8Guard<R> {
+    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
+        let n = self.inner.read(buf)?;
+        if n == 0 {
+            return match self.pending.first() {
+                Some(&b) => Err(self.bad(b)),
+                None => Ok(0),
+            };
+        }
+        let joined;
+        let data: &[u8] = if self.pending.is_empty() {
+            &buf[..n]
+        } else {
+            let mut v = std::mem::take(&mut self.pending);
+            v.extend_from_slice(&buf[..n]);
+            joined = v;
+            &joined
+        };
+        match std::str::from_utf8(data) {
+            Ok(_) => self.advance(data),
+            Err(e) => {
+                let (valid, rest) = data.split_at(e.valid_up_to());
+                self.advance(valid);
+                if e.error_len().is_some() {
+                    return Err(self.bad(rest[0]));
+                }
+                // A character begun at the end of the buffer: finished by the next one.
+                self.pending = rest.to_vec();
+            }
+        }
+        Ok(n)
+    }
+}
+
 /// A field of a record without surrounding ASCII white space (the csv crate's
 /// `Trim::All` does the same, but copies every record to do it).
 fn field(record: &csv::ByteRecord, i: usize) -> &[u8] {
@@ -304,7 +429,7 @@ pub fn read_survey<R: Read + 'static>(
     let (prefix, rest) =
         sniff(input).map_err(|e| InputError::new(Location::file(path), InputErrorKind::Io(e)))?;
     let delimiter = detect_delimiter(&prefix);
-    let input = Box::new(std::io::Cursor::new(prefix).chain(rest));
+    let input = Box::new(Utf8Guard::new(std::io::Cursor::new(prefix).chain(rest)));
     with_reader(delimiter, input, |reader| {
         read_rows(path, reader, delimiter, file_index, ctx, points, sink)
     })
@@ -321,22 +446,38 @@ fn read_rows(
 ) -> Result<SurveyFileInfo, InputError> {
     let mut record = csv::ByteRecord::new();
     let at = |line: u64| Location::line(path, line);
-    let read = |reader: &mut CsvReader, record: &mut csv::ByteRecord| {
-        reader.read_byte_record(record).map_err(|e| {
+    let read = |reader: &mut CsvReader, record: &mut csv::ByteRecord| loop {
+        let more = reader.read_byte_record(record).map_err(|e| {
+            if let Some(bad) = bad_byte_of(&e) {
+                return InputError::new(
+                    Location {
+                        path: path.to_string(),
+                        line: Some(bad.line),
+                        column: Some(bad.column),
+                    },
+                    InputErrorKind::NotUtf8 {
+                        column: None,
+                        byte: Some(bad.byte),
+                    },
+                );
+            }
             let line = e.position().map_or(1, |p| p.line());
             InputError::new(
                 at(line),
                 InputErrorKind::Io(std::io::Error::other(e.to_string())),
             )
-        })
+        })?;
+        // A row of empty fields (a blank line, or ",,," from a spreadsheet) holds no
+        // reading: skipped.
+        if !more || record.iter().any(|f| !f.trim_ascii().is_empty()) {
+            return Ok::<bool, InputError>(more);
+        }
     };
     if !read(reader, &mut record)? {
-        return Err(InputError::new(
-            Location::file(path),
-            InputErrorKind::EmptyFile,
-        ));
+        return Err(InputError::new(at(1), InputErrorKind::EmptyFile));
     }
     let header_line = record.position().map_or(1, csv::Position::line);
+    single_lines(path, header_line, &record, None)?;
     let cols = header(path, header_line, &record)?;
     let mut row_parser = RowParser {
         path,
@@ -346,30 +487,45 @@ fn read_rows(
         date_cache: None,
     };
     let mut rows = 0usize;
+    let mut thin = ThinCheck::default();
     while read(reader, &mut record)? {
         let line = record.position().map_or(0, csv::Position::line);
-        if record.len() == 1 && field(&record, 0).is_empty() {
-            continue;
-        }
+        single_lines(path, line, &record, Some(&cols.names))?;
         if record.len() != cols.names.len() {
+            let row: Vec<String> = record
+                .iter()
+                .map(|f| String::from_utf8_lossy(f).into_owned())
+                .collect();
             return Err(InputError::new(
                 at(line),
                 InputErrorKind::FieldCount {
                     found: record.len(),
                     expected: cols.names.len(),
+                    row: echo(&row.join(&char::from(delimiter).to_string())),
                 },
             ));
         }
+        for &i in &cols.unnamed {
+            let value = field(&record, i);
+            if !value.is_empty() {
+                return Err(InputError::new(
+                    at(line),
+                    InputErrorKind::UnnamedColumn {
+                        position: i + 1,
+                        value: echo(&String::from_utf8_lossy(value)),
+                    },
+                ));
+            }
+        }
         let reading = row_parser.parse(&record, line, file_index, points)?;
+        thin.see(ctx, &reading);
         sink.accept(&reading);
         rows += 1;
     }
     if rows == 0 {
-        return Err(InputError::new(
-            Location::file(path),
-            InputErrorKind::HeaderOnly,
-        ));
+        return Err(InputError::new(at(header_line), InputErrorKind::HeaderOnly));
     }
+    thin.check(path, ctx, cols.thickness.1)?;
     let thickness_unit = match cols.thickness.1 {
         Suffix::Si => Some("mm"),
         Suffix::Usc => Some("in"),
@@ -384,20 +540,113 @@ fn read_rows(
     })
 }
 
+/// Watches whether every reading of a file is under [`ALL_THIN_FACTOR`] of its
+/// course's nominal thickness: inches read as mm give about 1/25 of nominal, while no
+/// real survey finds a whole shell worn to a fifth of its plate. Kept while the rows
+/// stream past: the first reading and whether all so far were that thin.
+#[derive(Debug, Default)]
+struct ThinCheck {
+    count: usize,
+    all_thin: bool,
+    first: Option<(Origin, u32, Thickness)>,
+}
+
+impl ThinCheck {
+    fn see(&mut self, ctx: &SurveyContext, r: &ReadingRef<'_>) {
+        let thin = ctx
+            .nominal
+            .get((r.course as usize).wrapping_sub(1))
+            .is_some_and(|n| r.thickness.0 < ALL_THIN_FACTOR * n.0);
+        if self.count == 0 {
+            self.all_thin = thin;
+            self.first = Some((r.origin, r.course, r.thickness));
+        } else {
+            self.all_thin &= thin;
+        }
+        self.count += 1;
+    }
+
+    fn check(&self, path: &str, ctx: &SurveyContext, suffix: Suffix) -> Result<(), InputError> {
+        let (Some(units), Some((origin, course, thickness))) = (ctx.units, self.first) else {
+            return Ok(());
+        };
+        if !self.all_thin {
+            return Ok(());
+        }
+        let nominal = ctx
+            .nominal
+            .get((course as usize).wrapping_sub(1))
+            .copied()
+            .unwrap_or(Thickness(f64::NAN));
+        Err(InputError::new(
+            Location::line(path, origin.line),
+            InputErrorKind::AllThin {
+                count: self.count,
+                first: format!("{} {}", number_text(thickness.0), units.thickness_unit()),
+                nominal: Shown::thickness(nominal, units).to_string(),
+                course,
+                hint: match suffix {
+                    Suffix::None => "name the column thickness_in or thickness_mm to say the unit",
+                    _ => "the column name gives the unit: are the readings in another one?",
+                },
+            },
+        ))
+    }
+}
+
+/// Refuses a record with a line break inside a value: in a survey file that is a quote
+/// left open, and the rows it swallowed would be lost without a word.
+fn single_lines(
+    path: &str,
+    line: u64,
+    record: &csv::ByteRecord,
+    names: Option<&[String]>,
+) -> Result<(), InputError> {
+    for (i, field) in record.iter().enumerate() {
+        let field = field.trim_ascii();
+        if field.contains(&b'\n') || field.contains(&b'\r') {
+            let breaks = field.iter().filter(|&&b| b == b'\n').count() as u64;
+            return Err(InputError::new(
+                Location::line(path, line),
+                InputErrorKind::MultiLineValue {
+                    column: names.and_then(|n| n.get(i)).cloned(),
+                    first: line,
+                    last: line + breaks.max(1),
+                    value: echo(&String::from_utf8_lossy(field)),
+                },
+            ));
+        }
+    }
+    Ok(())
+}
+
 fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, InputError> {
     let at = || Location::line(path, line);
     let mut seen: Vec<(Field, usize, String)> = Vec::new();
     let mut names = Vec::with_capacity(record.len());
+    let mut unnamed = Vec::new();
     for (i, raw) in record.iter().enumerate() {
-        let name = std::str::from_utf8(raw.trim_ascii())
-            .map_err(|_| InputError::new(at(), InputErrorKind::NotUtf8 { column: None }))?;
+        let name = std::str::from_utf8(raw.trim_ascii()).map_err(|_| {
+            InputError::new(
+                at(),
+                InputErrorKind::NotUtf8 {
+                    column: None,
+                    byte: None,
+                },
+            )
+        })?;
         names.push(name.to_string());
+        if name.is_empty() {
+            // A spreadsheet's trailing empty column: allowed while its cells are empty.
+            unnamed.push(i);
+            continue;
+        }
         let lower = name.to_ascii_lowercase();
         let Some(field) = Field::parse(&lower) else {
             return Err(InputError::new(
                 at(),
                 InputErrorKind::UnknownColumn {
-                    column: shorten(name),
+                    column: echo(name),
                     suggestion: nearest(&lower, KNOWN_COLUMNS.iter().copied()),
                     known: KNOWN_COLUMNS.join(", "),
                 },
@@ -407,7 +656,7 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
             return Err(InputError::new(
                 at(),
                 InputErrorKind::DuplicateColumn {
-                    column: first_name.clone(),
+                    column: echo(first_name),
                     first: first + 1,
                     second: i + 1,
                 },
@@ -421,8 +670,8 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
                 at(),
                 InputErrorKind::MixedUnits {
                     quantity: field.quantity(),
-                    first: first_name.clone(),
-                    second: name.to_string(),
+                    first: echo(first_name),
+                    second: echo(name),
                 },
             ));
         }
@@ -438,7 +687,7 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
             at(),
             InputErrorKind::MissingColumn {
                 column,
-                found: shorten(&names.join(", ")),
+                found: echo(&names.join(", ")),
             },
         )
     };
@@ -463,6 +712,7 @@ fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, In
         azimuth: find(|f| f == Field::Azimuth).map(|x| x.1),
         note: find(|f| f == Field::Note).map(|x| x.1),
         names,
+        unnamed,
     })
 }
 
@@ -509,19 +759,6 @@ pub fn read_number(s: &str, delimiter: u8) -> NumberText {
     }
 }
 
-/// Longest echo of a bad value in a message.
-const ECHO_CHARS: usize = 60;
-
-/// `raw`, cut to a length fit for a message.
-pub fn shorten(raw: &str) -> String {
-    if raw.chars().count() > ECHO_CHARS {
-        let s: String = raw.chars().take(ECHO_CHARS - 3).collect();
-        format!("{s}...")
-    } else {
-        raw.to_string()
-    }
-}
-
 struct RowParser<'a> {
     path: &'a str,
     ctx: &'a SurveyContext,
@@ -547,6 +784,7 @@ impl RowParser<'_> {
                 self.at(line),
                 InputErrorKind::NotUtf8 {
                     column: Some(self.cols.names[i].clone()),
+                    byte: None,
                 },
             )
         })
@@ -564,7 +802,7 @@ impl RowParser<'_> {
             self.at(line),
             InputErrorKind::BadValue {
                 column: self.cols.names[i].clone(),
-                value: shorten(value),
+                value: echo(value),
                 what,
                 expected,
             },
@@ -576,7 +814,8 @@ impl RowParser<'_> {
             self.at(line),
             InputErrorKind::OutOfRange {
                 column: self.cols.names[i].clone(),
-                value: shorten(&value),
+                // Numbers and dates as shown; a text value comes quoted and echoed.
+                value,
                 problem,
             },
         )
@@ -688,7 +927,7 @@ impl RowParser<'_> {
             return Err(self.range(
                 line,
                 ti,
-                format!("{raw} {unit_name}"),
+                format!("{} {unit_name}", number_text(raw)),
                 format!("is not positive, expected {expected}"),
             ));
         }
@@ -699,23 +938,39 @@ impl RowParser<'_> {
             return Err(self.range(
                 line,
                 ti,
-                format!("{raw} {unit_name}"),
+                format!("{} {unit_name}", number_text(raw)),
                 format!(
-                    "is more than 3 x the nominal {} of course {course}: a unit \
-                         mistake? name the column thickness_mm or thickness_in to say the unit",
-                    Shown::thickness(*nominal, units)
+                    "is more than 3 x the nominal {} of course {course}: a unit mistake? {}",
+                    Shown::thickness(*nominal, units),
+                    match suffix {
+                        Suffix::None =>
+                            "name the column thickness_mm or thickness_in to say the unit",
+                        _ => "the column name gives the unit: are the readings in another one?",
+                    }
                 ),
             ));
         }
 
         // optional columns
         let point = match cols.point {
-            Some(i) => Some(self.text(record, i, line)?)
-                .filter(|s| !s.is_empty())
-                .map(|id| PointRef {
+            Some(i) => {
+                let p = self.text(record, i, line)?;
+                if p.chars().count() > MAX_POINT_CHARS {
+                    return Err(self.range(
+                        line,
+                        i,
+                        format!("\"{}\"", echo(p)),
+                        format!(
+                            "is too long for a point id, expected at most {MAX_POINT_CHARS} \
+                             characters (e.g. \"D5-C1-L\")"
+                        ),
+                    ));
+                }
+                Some(p).filter(|s| !s.is_empty()).map(|id| PointRef {
                     key: points.key(id),
                     id,
-                }),
+                })
+            }
             None => None,
         };
         let elevation = match cols.elevation {
@@ -729,7 +984,7 @@ impl RowParser<'_> {
                         return Err(self.range(
                             line,
                             i,
-                            format!("{v} {unit_name}"),
+                            format!("{} {unit_name}", number_text(v)),
                             format!("is negative, expected {expected}"),
                         ));
                     }
@@ -742,11 +997,20 @@ impl RowParser<'_> {
                             return Err(self.range(
                                 line,
                                 i,
-                                format!("{v} {unit_name}"),
+                                format!("{} {unit_name}", number_text(v)),
                                 format!(
-                                    "is above the shell height {} {lu}: a unit mistake? name the \
-                                         column elevation_m or elevation_ft to say the unit",
-                                    shell.0
+                                    "is above the shell height {} {lu}: a unit mistake? {}",
+                                    number_text(shell.0),
+                                    match suffix {
+                                        Suffix::None => {
+                                            "name the column elevation_m or elevation_ft to \
+                                             say the unit"
+                                        }
+                                        _ => {
+                                            "the column name gives the unit: are the values \
+                                             in another one?"
+                                        }
+                                    }
                                 ),
                             ));
                         }
@@ -765,7 +1029,7 @@ impl RowParser<'_> {
                         return Err(self.range(
                             line,
                             i,
-                            a.to_string(),
+                            number_text(a),
                             "is outside 0 to 360 degrees".into(),
                         ));
                     }
@@ -838,6 +1102,17 @@ impl RowParser<'_> {
                 format!(
                     "is after today ({}), expected the date the survey was made",
                     self.ctx.today
+                ),
+            ));
+        }
+        if date.year() < EARLIEST_SURVEY_YEAR {
+            return Err(self.range(
+                line,
+                i,
+                s.to_string(),
+                format!(
+                    "is before {EARLIEST_SURVEY_YEAR}: no thickness survey is that old; a \
+                     typing slip? expected the date the survey was made"
                 ),
             ));
         }
@@ -945,6 +1220,8 @@ mod tests {
             "9007199254740993",
             " 1",
             "1 ",
+            // Once found by the proptest below (kept here rather than in a regressions file).
+            "20000.000000000000000",
         ] {
             agrees(t);
         }

@@ -5,7 +5,7 @@
 //! the rows unless the receiving [`ReadingSink`] does.
 
 use std::collections::hash_map::Entry;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use chrono::NaiveDate;
 use rustc_hash::FxHashMap;
@@ -58,42 +58,67 @@ fn read_bytes(path: &Path) -> Result<Vec<u8>, InputError> {
 
 /// Reads and validates `dir/tank.toml`.
 pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
+    let shown_dir = dir.display().to_string();
+    if !dir.exists() {
+        return Err(InputError::new(
+            Location::file(shown_dir),
+            InputErrorKind::Io(std::io::Error::new(
+                std::io::ErrorKind::NotFound,
+                "no such file or folder",
+            )),
+        ));
+    }
+    if !dir.is_dir() {
+        return Err(InputError::new(
+            Location::file(shown_dir),
+            InputErrorKind::NotATankFolder,
+        ));
+    }
     let path = dir.join(TANK_FILE);
-    let shown = path.display().to_string();
     if !path.is_file() {
         return Err(InputError::new(
-            Location::file(dir.display().to_string()),
+            Location::file(shown_dir),
             InputErrorKind::NoTankFile,
         ));
     }
     let bytes = read_bytes(&path)?;
-    let text = String::from_utf8(bytes).map_err(|e| {
-        let offset = e.utf8_error().valid_up_to();
-        let valid = String::from_utf8_lossy(&e.as_bytes()[..offset]).into_owned();
+    tank_from_bytes(&path.display().to_string(), &bytes)
+}
+
+/// Parses the bytes of a tank file; `shown` names it in messages.
+pub fn tank_from_bytes(shown: &str, bytes: &[u8]) -> Result<Tank, InputError> {
+    let text = std::str::from_utf8(bytes).map_err(|e| {
+        let offset = e.valid_up_to();
+        let valid = String::from_utf8_lossy(&bytes[..offset]);
         InputError::new(
-            Location::at_offset(&shown, &valid, offset),
-            InputErrorKind::NotUtf8 { column: None },
+            Location::at_offset(shown, &valid, offset),
+            InputErrorKind::NotUtf8 {
+                column: None,
+                byte: bytes.get(offset).copied(),
+            },
         )
     })?;
-    parse_tank(&shown, &text)
+    parse_tank(shown, text)
 }
 
 /// The survey files of a tank folder, sorted by name (none when there is no
-/// surveys/ folder).
-pub fn survey_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
+/// surveys/ folder), and the other entries of surveys/ that are not read (so that a
+/// survey saved as .xlsx or .txt is reported, not silently left out). Hidden entries
+/// (names starting with '.') are skipped without a word.
+pub fn survey_files(dir: &Path) -> Result<(Vec<PathBuf>, Vec<PathBuf>), InputError> {
     csv_files(dir, SURVEY_DIR)
 }
 
-/// The scan files of a tank folder, sorted by name (none when there is no scans/
-/// folder).
-pub fn scan_files(dir: &Path) -> Result<Vec<std::path::PathBuf>, InputError> {
+/// The scan files of a tank folder, sorted by name, and the entries of scans/ that
+/// are not read.
+pub fn scan_files(dir: &Path) -> Result<(Vec<PathBuf>, Vec<PathBuf>), InputError> {
     csv_files(dir, SCAN_DIR)
 }
 
 /// Reads every grid scan of the tank folder `dir`.
 pub fn read_scans(dir: &Path, tank: &Tank, today: NaiveDate) -> Result<Vec<Scan>, InputError> {
     let mut scans = Vec::new();
-    for path in scan_files(dir)? {
+    for path in scan_files(dir)?.0 {
         let shown = path.display().to_string();
         let bytes = read_bytes(&path)?;
         scans.push(read_scan(&shown, &bytes, Some(tank), today)?);
@@ -101,11 +126,22 @@ pub fn read_scans(dir: &Path, tank: &Tank, today: NaiveDate) -> Result<Vec<Scan>
     Ok(scans)
 }
 
-/// The visible `*.csv` files of `dir/sub`, sorted by name.
-fn csv_files(dir: &Path, sub: &str) -> Result<Vec<std::path::PathBuf>, InputError> {
+/// The entries of `dir/sub` that are not read, as warnings.
+pub fn not_read(skipped: &[PathBuf]) -> Vec<Warning> {
+    skipped
+        .iter()
+        .map(|p| Warning::NotRead {
+            path: p.display().to_string(),
+            folder: p.is_dir(),
+        })
+        .collect()
+}
+
+/// The visible `*.csv` files of `dir/sub` and its other visible entries, both sorted.
+fn csv_files(dir: &Path, sub: &str) -> Result<(Vec<PathBuf>, Vec<PathBuf>), InputError> {
     let folder = dir.join(sub);
     if !folder.is_dir() {
-        return Ok(Vec::new());
+        return Ok((Vec::new(), Vec::new()));
     }
     let entries = std::fs::read_dir(&folder).map_err(|e| {
         InputError::new(
@@ -114,6 +150,7 @@ fn csv_files(dir: &Path, sub: &str) -> Result<Vec<std::path::PathBuf>, InputErro
         )
     })?;
     let mut files = Vec::new();
+    let mut skipped = Vec::new();
     for entry in entries {
         let entry = entry.map_err(|e| {
             InputError::new(
@@ -127,14 +164,19 @@ fn csv_files(dir: &Path, sub: &str) -> Result<Vec<std::path::PathBuf>, InputErro
             .is_some_and(|x| x.eq_ignore_ascii_case("csv"));
         let hidden = path
             .file_name()
-            .and_then(|n| n.to_str())
-            .is_some_and(|n| n.starts_with('.'));
-        if is_csv && !hidden && path.is_file() {
+            .is_some_and(|n| n.to_string_lossy().starts_with('.'));
+        if hidden {
+            continue;
+        }
+        if is_csv && path.is_file() {
             files.push(path);
+        } else {
+            skipped.push(path);
         }
     }
     files.sort();
-    Ok(files)
+    skipped.sort();
+    Ok((files, skipped))
 }
 
 /// The reading context of a tank.
@@ -172,7 +214,7 @@ pub fn stream_surveys(
     let ctx = context_of(tank, today);
     let mut filter = RepeatFilter::new(tank.units, sink);
     let mut infos = Vec::new();
-    let paths = survey_files(dir)?;
+    let (paths, skipped) = survey_files(dir)?;
     for (i, path) in paths.iter().enumerate() {
         let shown = path.display().to_string();
         let file = std::fs::File::open(path)
@@ -185,7 +227,9 @@ pub fn stream_surveys(
         }
         infos.push(info);
     }
-    let (files, remarks) = filter.finish()?;
+    let (files, repeats) = filter.finish()?;
+    let mut remarks = not_read(&skipped);
+    remarks.extend(repeats);
     Ok(SurveysRead {
         files,
         infos,

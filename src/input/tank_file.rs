@@ -13,7 +13,8 @@ use serde::Deserialize;
 use toml::Spanned;
 use toml::de::{DeTable, DeValue, ValueDeserializer};
 
-use super::error::{InputError, InputErrorKind, Location, nearest};
+use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
+use super::limits::{self, MIN_JOINT_EFFICIENCY, Plausible};
 use crate::calc::constants::MAX_SPECIFIC_GRAVITY;
 use crate::calc::materials::{find_grade, grade_names};
 use crate::calc::units::{Length, Stress, Thickness, UnitSystem};
@@ -33,6 +34,9 @@ pub const TANK_KEYS: &[&str] = &[
     "assessment",
     "course",
 ];
+/// What the `course` key holds.
+const COURSES_EXPECTED: &str = "[[course]] tables, one per course, bottom course first";
+
 /// Keys of `[assessment]`.
 pub const ASSESSMENT_KEYS: &[&str] = &["thickness_basis", "rate_basis"];
 /// Keys of each `[[course]]`.
@@ -51,6 +55,12 @@ pub const COURSE_KEYS: &[&str] = &[
 /// Parses and validates the text of a tank file; `path` is used in messages.
 pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    if text.trim().is_empty() {
+        return Err(InputError::new(
+            Location::line(path, 1),
+            InputErrorKind::EmptyTankFile,
+        ));
+    }
     let doc = Doc { path, text };
     let root = DeTable::parse(text).map_err(|e| doc.syntax(&e))?;
     let top = Table::new(&doc, root.get_ref(), root.span(), None, TANK_KEYS)?;
@@ -59,9 +69,28 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     if id.get_ref().trim().is_empty() {
         return Err(top.invalid(&id, "id", "is empty, expected a short tag"));
     }
-    let name = top
-        .optional_string("name", "a text")?
-        .map(Spanned::into_inner);
+    if id.get_ref().chars().count() > limits::MAX_ID_CHARS
+        || id.get_ref().contains(char::is_control)
+    {
+        return Err(top.invalid(
+            &id,
+            "id",
+            "is not a short tag, expected at most 40 characters on one line, e.g. \"T-101\" \
+             (the full name goes in \"name\")",
+        ));
+    }
+    let name = top.optional_string("name", "a text")?;
+    if let Some(n) = &name
+        && (n.get_ref().chars().count() > limits::MAX_NAME_CHARS
+            || n.get_ref().contains(char::is_control))
+    {
+        return Err(top.invalid(
+            n,
+            "name",
+            "is too long for a name, expected at most 200 characters on one line",
+        ));
+    }
+    let name = name.map(Spanned::into_inner);
     let units_v = top.required_string("units", "\"SI\" or \"USC\"")?;
     let units = match units_v.get_ref().to_ascii_uppercase().as_str() {
         "SI" => UnitSystem::Si,
@@ -80,6 +109,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
 
     let diameter = top.required_number("diameter", &format!("a number in {lu}"))?;
     top.positive(&diameter, "diameter", lu)?;
+    top.plausible(&diameter, "diameter", limits::diameter(units))?;
     let fill = top.required_number("max_fill_height", &format!("a number in {lu}"))?;
     top.positive(&fill, "max_fill_height", lu)?;
     let sg = top.required_number("specific_gravity", "a number, e.g. 0.85")?;
@@ -90,6 +120,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             "is out of range, expected more than 0 and at most 3 (water = 1.0)",
         ));
     }
+    top.plausible(&sg, "specific_gravity", limits::specific_gravity())?;
     let construction = match top.optional_string("construction", "\"welded\" or \"riveted\"")? {
         None => Construction::Welded,
         Some(c) => match c.get_ref().to_ascii_lowercase().as_str() {
@@ -162,6 +193,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             InputErrorKind::MissingKey {
                 key: "course",
                 table: None,
+                expected: COURSES_EXPECTED.into(),
             },
         ));
     }
@@ -171,9 +203,15 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
         let number = i as u32 + 1;
         let height = c.required_number("height", &format!("a number in {lu}"))?;
         c.positive(&height, "height", lu)?;
+        c.plausible(&height, "height", limits::course_height(units))?;
         let nominal = c.required_number("nominal_thickness", &format!("a number in {tu}"))?;
         c.positive(&nominal, "nominal_thickness", tu)?;
-        let material = course_material(c, su)?;
+        c.plausible(
+            &nominal,
+            "nominal_thickness",
+            limits::nominal_thickness(units),
+        )?;
+        let material = course_material(c, units)?;
         let e = match c.optional_number("joint_efficiency", "a number in (0, 1]")? {
             None => None,
             Some(e) => Some(c.efficiency(&e)?),
@@ -213,8 +251,8 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
         });
         bottom += *height.get_ref();
     }
-    let shell = bottom;
-    if *fill.get_ref() > shell + 1e-9 {
+    let shell = number_text(bottom);
+    if *fill.get_ref() > bottom + 1e-9 {
         return Err(top.invalid(
             &fill,
             "max_fill_height",
@@ -241,7 +279,8 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     })
 }
 
-fn course_material(c: &Table<'_, '_>, su: &str) -> Result<Material, InputError> {
+fn course_material(c: &Table<'_, '_>, units: UnitSystem) -> Result<Material, InputError> {
+    let su = units.stress_unit();
     let grade = c.optional_string("material", "a grade name, e.g. \"A36\"")?;
     let ys = c.optional_number("yield_strength", &format!("a number in {su}"))?;
     let ts = c.optional_number("tensile_strength", &format!("a number in {su}"))?;
@@ -280,17 +319,25 @@ fn course_material(c: &Table<'_, '_>, su: &str) -> Result<Material, InputError> 
                     &format!(
                         "{su} is above tensile_strength {} {su}: expected yield below tensile \
                          (are the two swapped?)",
-                        t.get_ref()
+                        number_text(*t.get_ref())
                     ),
                 ));
             }
+            c.plausible(&y, "yield_strength", limits::strength(units))?;
+            c.plausible(&t, "tensile_strength", limits::strength(units))?;
             Ok(Material::Explicit {
                 yield_strength: Stress(*y.get_ref()),
                 tensile_strength: Stress(*t.get_ref()),
             })
         }
-        (None, Some(_), None) => Err(c.missing("tensile_strength")),
-        (None, None, Some(_)) => Err(c.missing("yield_strength")),
+        (None, Some(_), None) => Err(c.missing(
+            "tensile_strength",
+            &format!("a number in {su} beside yield_strength"),
+        )),
+        (None, None, Some(_)) => Err(c.missing(
+            "yield_strength",
+            &format!("a number in {su} beside tensile_strength"),
+        )),
         (None, None, None) => Ok(Material::NotGiven),
     }
 }
@@ -310,21 +357,41 @@ impl Doc<'_> {
             Some(span) => self.at(&span),
             None => Location::file(self.path),
         };
-        let message = e.message().trim().replace('\n', " ");
+        let mut message = e.message().trim().replace('\n', " ");
+        // The toml crate names the problem and points at it; the text it points at
+        // (the repeated key, the unclosed string) is added so the message names it.
+        if let Some(span) = e.span() {
+            let at = self.text.get(span.clone()).unwrap_or("").trim();
+            let at = at.lines().next().unwrap_or("");
+            if !at.is_empty() {
+                message = format!("{message} at \"{}\"", echo(at));
+            } else if let Some(line) = self.line_at(span.start).filter(|l| !l.is_empty()) {
+                message = format!("{message}, in \"{}\"", echo(line));
+            }
+        }
         InputError::new(location, InputErrorKind::TomlSyntax(message))
     }
+    /// The text of the line holding byte `offset`, trimmed.
+    fn line_at(&self, offset: usize) -> Option<&str> {
+        let head = self.text.get(..offset)?;
+        let start = head.rfind('\n').map_or(0, |i| i + 1);
+        let rest = self.text.get(start..)?;
+        Some(rest.lines().next().unwrap_or("").trim())
+    }
+
     fn source(&self, span: &Range<usize>) -> String {
         let raw = self.text.get(span.clone()).unwrap_or("").trim();
-        shorten(raw)
-    }
-}
-
-fn shorten(raw: &str) -> String {
-    if raw.chars().count() > 60 {
-        let s: String = raw.chars().take(57).collect();
-        format!("{s}...")
-    } else {
-        raw.to_string()
+        // A long quoted string keeps its quotes around the shortened text.
+        for q in ['"', '\''] {
+            if let Some(inner) = raw
+                .strip_prefix(q)
+                .and_then(|r| r.strip_suffix(q))
+                .filter(|i| !i.starts_with(q))
+            {
+                return format!("{q}{}{q}", echo(inner));
+            }
+        }
+        echo(raw)
     }
 }
 
@@ -351,9 +418,10 @@ impl<'d, 'i> Table<'d, 'i> {
                 return Err(InputError::new(
                     doc.at(&key.span()),
                     InputErrorKind::UnknownKey {
-                        key: key.get_ref().to_string(),
+                        key: echo(key.get_ref()),
                         table: name.clone(),
                         suggestion: nearest(key.get_ref(), known.iter().copied()),
+                        known: known.join(", "),
                     },
                 ));
             }
@@ -377,16 +445,32 @@ impl<'d, 'i> Table<'d, 'i> {
         }
     }
 
-    fn missing(&self, key: &'static str) -> InputError {
+    fn missing(&self, key: &'static str, expected: &str) -> InputError {
+        if self.name.is_none()
+            && let Some((table, span)) = find_nested(self.table, key, "", 0)
+        {
+            // A tank key written below a [table] header belongs to that table.
+            return InputError::new(
+                self.doc.at(&span),
+                InputErrorKind::MisplacedKey {
+                    key,
+                    table,
+                    expected: expected.to_string(),
+                },
+            );
+        }
+        // A key missing from the top level is reported at the top of the file, where
+        // the tank's keys go.
         let location = match self.name {
             Some(_) => self.doc.at(&self.span),
-            None => Location::file(self.doc.path),
+            None => Location::at_offset(self.doc.path, self.doc.text, 0),
         };
         InputError::new(
             location,
             InputErrorKind::MissingKey {
                 key,
                 table: self.name.clone(),
+                expected: expected.to_string(),
             },
         )
     }
@@ -434,7 +518,7 @@ impl<'d, 'i> Table<'d, 'i> {
         expected: &str,
     ) -> Result<Spanned<String>, InputError> {
         self.optional_string(key, expected)?
-            .ok_or_else(|| self.missing(key))
+            .ok_or_else(|| self.missing(key, expected))
     }
 
     fn optional_number(
@@ -468,7 +552,7 @@ impl<'d, 'i> Table<'d, 'i> {
         expected: &str,
     ) -> Result<Spanned<f64>, InputError> {
         self.optional_number(key, expected)?
-            .ok_or_else(|| self.missing(key))
+            .ok_or_else(|| self.missing(key, expected))
     }
 
     fn positive(&self, v: &Spanned<f64>, key: &str, unit: &str) -> Result<(), InputError> {
@@ -483,16 +567,33 @@ impl<'d, 'i> Table<'d, 'i> {
         }
     }
 
+    /// Refuses a value outside its plausible range (a typing or unit mistake).
+    fn plausible(&self, v: &Spanned<f64>, key: &str, range: Plausible) -> Result<(), InputError> {
+        let x = *v.get_ref();
+        if x >= range.min && x <= range.max {
+            Ok(())
+        } else {
+            Err(self.invalid(v, key, range.why))
+        }
+    }
+
     fn efficiency(&self, v: &Spanned<f64>) -> Result<f64, InputError> {
         let e = *v.get_ref();
-        if e > 0.0 && e <= 1.0 {
-            Ok(e)
-        } else {
+        if !(e > 0.0 && e <= 1.0) {
             Err(self.invalid(
                 v,
                 "joint_efficiency",
                 "is out of range, expected more than 0 and at most 1 (e.g. 0.85)",
             ))
+        } else if e < MIN_JOINT_EFFICIENCY {
+            Err(self.invalid(
+                v,
+                "joint_efficiency",
+                "is below 0.3, lower than any joint the tank codes rate (single-lap welds are \
+                 about 0.35): a typing slip?",
+            ))
+        } else {
+            Ok(e)
         }
     }
 
@@ -542,12 +643,12 @@ impl<'d, 'i> Table<'d, 'i> {
         key: &'static str,
         known: &[&str],
     ) -> Result<Vec<Table<'d, 'i>>, InputError> {
+        let expected = COURSES_EXPECTED;
         let Some(v) = self.get(key) else {
-            return Err(self.missing(key));
+            return Err(self.missing(key, expected));
         };
-        let expected = format!("[[{key}]] tables, one per course, bottom course first");
         let DeValue::Array(items) = v.get_ref() else {
-            return Err(self.wrong_type(key, v, &expected));
+            return Err(self.wrong_type(key, v, expected));
         };
         let mut out = Vec::new();
         for (i, item) in items.iter().enumerate() {
@@ -559,11 +660,58 @@ impl<'d, 'i> Table<'d, 'i> {
                     Some(format!("{key} {}", i + 1)),
                     known,
                 )?),
-                _ => return Err(self.wrong_type(key, item, &expected)),
+                _ => return Err(self.wrong_type(key, item, expected)),
             }
         }
         Ok(out)
     }
+}
+
+/// Where `key` sits inside a table below `table` (not at its own level): the table's
+/// name as a message gives it, and the key's span. Searches a few levels deep.
+fn find_nested(
+    table: &DeTable<'_>,
+    key: &str,
+    prefix: &str,
+    depth: usize,
+) -> Option<(String, Range<usize>)> {
+    if depth > 4 {
+        return None;
+    }
+    let mut entries: Vec<_> = table.iter().collect();
+    entries.sort_by_key(|(k, _)| k.span().start);
+    for (k, v) in entries {
+        let name = if prefix.is_empty() {
+            k.get_ref().to_string()
+        } else {
+            format!("{prefix}.{}", k.get_ref())
+        };
+        match v.get_ref() {
+            DeValue::Table(t) => {
+                if let Some((found, _)) = t.get_key_value(key) {
+                    return Some((format!("[{}]", echo(&name)), found.span()));
+                }
+                if let Some(hit) = find_nested(t, key, &name, depth + 1) {
+                    return Some(hit);
+                }
+            }
+            DeValue::Array(items) => {
+                for (i, item) in items.iter().enumerate() {
+                    if let DeValue::Table(t) = item.get_ref() {
+                        if let Some((found, _)) = t.get_key_value(key) {
+                            return Some((format!("{} {}", echo(&name), i + 1), found.span()));
+                        }
+                        let inner = format!("{name} {}", i + 1);
+                        if let Some(hit) = find_nested(t, key, &inner, depth + 1) {
+                            return Some(hit);
+                        }
+                    }
+                }
+            }
+            _ => {}
+        }
+    }
+    None
 }
 
 fn type_name(v: &DeValue<'_>) -> &'static str {

@@ -203,6 +203,13 @@ pub enum Warning {
         /// Which method.
         method: &'static str,
     },
+    /// An entry of surveys/ that is not a .csv file and was not read.
+    NotRead {
+        /// The entry, as displayed.
+        path: String,
+        /// True for a folder.
+        folder: bool,
+    },
     /// Readings after the `--as-of` date were left out.
     ReadingsAfterAsOf {
         /// How many.
@@ -370,6 +377,21 @@ impl fmt::Display for Warning {
                 "allowable level covers measured courses only: course {} has no readings",
                 course_list(courses)
             ),
+            Warning::NotRead { path, folder } => {
+                if *folder {
+                    write!(
+                        f,
+                        "{path}: a folder inside surveys/, not read: survey files are read \
+                         from surveys/ itself"
+                    )
+                } else {
+                    write!(
+                        f,
+                        "{path}: not a .csv file, not read: export the survey as CSV to \
+                         include it"
+                    )
+                }
+            }
             Warning::ReadingsAfterAsOf { count, as_of } => {
                 write!(f, "{count} readings dated after {as_of} left out (--as-of)")
             }

@@ -28,6 +28,16 @@ pub fn print(text: &str, color: ColorWhen) -> io::Result<()> {
     out.flush()
 }
 
+/// Writes each warning to standard error as `warning: <sentence>`, one a line (for
+/// outputs, such as CSV, that have no place for them).
+pub fn warnings_to_stderr(warnings: &[crate::model::warning::Warning]) -> io::Result<()> {
+    let mut err = io::stderr().lock();
+    for w in warnings {
+        writeln!(err, "warning: {w}")?;
+    }
+    err.flush()
+}
+
 /// Writes `bytes` to `path` atomically: a reader sees the old file or the new one,
 /// never a part. The temporary file sits beside the target and is renamed over it.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {

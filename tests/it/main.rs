@@ -4,9 +4,11 @@
 mod assess;
 mod browser;
 mod check;
+mod corpus;
 mod errors;
 mod fill_height;
 mod fleet;
+mod io_safety;
 mod properties;
 mod reference;
 mod report;

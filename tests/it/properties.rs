@@ -1,9 +1,11 @@
 //! Properties that must hold for every tank (proptest): the round trip of the
-//! one-foot relation, SI/USC equivalence, and monotonicity of remaining life.
+//! one-foot relation, SI/USC equivalence, monotonicity (remaining life, fill height,
+//! due dates), and readers that never panic on any bytes.
 
 use chrono::NaiveDate;
 use proptest::prelude::*;
 use strake::calc::assess::{AssessOptions, assess};
+use strake::calc::fill_height::fill_scenarios;
 use strake::calc::shell::{CourseLoad, max_fill_height, whole_course_t_min};
 use strake::calc::units::{Length, Stress, Thickness, UnitSystem};
 use strake::model::reading::{Origin, Reading, ReadingSet};
@@ -369,6 +371,252 @@ proptest! {
             } else {
                 prop_assert!(next.calc.value.0 < fill + tol, "{} >= {}", next.calc.value.0, fill);
             }
+        }
+    }
+}
+
+/// Days from the first survey to today (2005-05-10 to 2026-12-01).
+const AS_OF_SPAN_DAYS: i64 = 7875;
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(128))]
+
+    /// A heavier product never raises the allowable liquid level (methods.md s.4:
+    /// H_max = S E t / (4.9 D G) + 0.3 + z falls as G rises): per course and for the
+    /// tank, now, and later after the same number of years of corrosion.
+    #[test]
+    fn higher_sg_never_raises_the_fill_height(
+        case in case(),
+        g1 in 0.3f64..3.0,
+        step in 0.001f64..1.5,
+        years in 0.0f64..30.0,
+    ) {
+        let g2 = (g1 + step).min(3.0);
+        let a = run(&case, UnitSystem::Si);
+        let scenarios = fill_scenarios(&a, &[g1, g2], years);
+        let (light, heavy) = (&scenarios[1], &scenarios[2]);
+        for (l, h) in light.courses.iter().zip(&heavy.courses) {
+            prop_assert!(h.now.value.0 <= l.now.value.0 + 1e-12, "course {} now", l.course);
+            if let (Some(ll), Some(hl)) = (l.later, h.later) {
+                prop_assert!(hl.value.0 <= ll.value.0 + 1e-12, "course {} later", l.course);
+            }
+        }
+        let level = |f: Option<strake::model::result::FillLimit>| f.map(|f| f.level.0);
+        prop_assert!(level(heavy.now) <= level(light.now));
+        prop_assert!(level(heavy.later) <= level(light.later));
+
+        // The same through the assessment itself (--sg): the allowable level now.
+        let (t, r) = tank(&case, UnitSystem::Si);
+        let with = |g: f64| {
+            assess(&t, &r, AssessOptions { specific_gravity: Some(g), ..AssessOptions::default() })
+                .expect("assessable")
+        };
+        let (al, ah) = (with(g1), with(g2));
+        prop_assert!(level(ah.summary.max_fill_height) <= level(al.summary.max_fill_height));
+        for (cl, ch) in al.courses.iter().zip(&ah.courses) {
+            let (kl, kh) = (cl.condition.as_ref().expect("measured"), ch.condition.as_ref().expect("measured"));
+            prop_assert!(kh.max_fill_height.value.0 <= kl.max_fill_height.value.0 + 1e-12);
+        }
+    }
+
+    /// A later assessment date without a new survey never brings the next inspections
+    /// forward: the due dates run from the latest survey used (API 653 6.3), and the
+    /// same surveys give the same dates.
+    #[test]
+    fn later_as_of_never_moves_due_dates_earlier(
+        case in case(),
+        d1 in 0i64..AS_OF_SPAN_DAYS,
+        gap in 0i64..AS_OF_SPAN_DAYS,
+    ) {
+        let first = date(SURVEYS[0].0, SURVEYS[0].1, SURVEYS[0].2);
+        let as1 = first + chrono::Duration::days(d1);
+        let as2 = first + chrono::Duration::days((d1 + gap).min(AS_OF_SPAN_DAYS));
+        let surveys_upto = |d: NaiveDate| SURVEYS.iter().filter(|&&(y, m, dd)| date(y, m, dd) <= d).count();
+        prop_assume!(surveys_upto(as1) == surveys_upto(as2));
+        let (t, r) = tank(&case, UnitSystem::Si);
+        let at = |d: NaiveDate| {
+            assess(&t, &r, AssessOptions { as_of: Some(d), ..AssessOptions::default() })
+                .expect("assessable")
+        };
+        let (a1, a2) = (at(as1), at(as2));
+        prop_assert_eq!(a1.latest_survey, a2.latest_survey);
+        for (n1, n2) in [
+            (a1.summary.next_ut_inspection, a2.summary.next_ut_inspection),
+            (a1.summary.next_external_inspection, a2.summary.next_external_inspection),
+        ] {
+            if let (Some(n1), Some(n2)) = (n1, n2) {
+                prop_assert!(n2 >= n1, "{} -> {}", n1, n2);
+            }
+            prop_assert_eq!(n1.is_some(), n2.is_some());
+        }
+    }
+}
+
+// ---------------------------------------------------------------------------------
+// The readers never panic: any bytes give readings or an error, never a crash.
+// ---------------------------------------------------------------------------------
+
+mod readers {
+    use chrono::NaiveDate;
+    use proptest::prelude::*;
+    use strake::calc::units::{Length, Thickness, UnitSystem};
+    use strake::input::survey_csv::{SurveyContext, read_survey};
+    use strake::input::tank_dir::tank_from_bytes;
+    use strake::input::tank_file::parse_tank;
+
+    fn contexts() -> [SurveyContext; 2] {
+        let today = NaiveDate::from_ymd_opt(2026, 12, 1).expect("date");
+        [
+            SurveyContext {
+                units: None,
+                nominal: Vec::new(),
+                shell_height: None,
+                in_service_since: None,
+                today,
+            },
+            SurveyContext {
+                units: Some(UnitSystem::Si),
+                nominal: vec![Thickness(10.0), Thickness(8.0)],
+                shell_height: Some(Length(5.0)),
+                in_service_since: NaiveDate::from_ymd_opt(2000, 1, 1),
+                today,
+            },
+        ]
+    }
+
+    /// Reads `bytes` in every context; an accepted file returns one reading per row
+    /// and only valid readings; a refused one gives a one-line message of bounded size.
+    fn survey_holds(bytes: &[u8]) -> Result<(), TestCaseError> {
+        for ctx in contexts() {
+            let mut out = Vec::new();
+            let mut names = strake::model::reading::PointNames::default();
+            let input = std::io::Cursor::new(bytes.to_vec());
+            match read_survey("p.csv", input, 0, &ctx, &mut names, &mut out) {
+                Ok(info) => {
+                    prop_assert_eq!(info.rows, out.len());
+                    for r in &out {
+                        prop_assert!(r.thickness.0.is_finite() && r.thickness.0 > 0.0);
+                        prop_assert!(r.course >= 1 && r.date <= ctx.today);
+                    }
+                }
+                Err(e) => {
+                    let m = e.to_string();
+                    prop_assert!(m.starts_with("p.csv"), "{}", m);
+                    prop_assert!(!m.contains('\n') && m.len() < 1000, "{}", m);
+                }
+            }
+        }
+        Ok(())
+    }
+
+    fn tank_holds(bytes: &[u8]) -> Result<(), TestCaseError> {
+        match tank_from_bytes("tank.toml", bytes) {
+            Ok(t) => prop_assert!(!t.courses.is_empty()),
+            Err(e) => {
+                let m = e.to_string();
+                prop_assert!(m.starts_with("tank.toml"), "{}", m);
+                prop_assert!(!m.contains('\n') && m.len() < 1000, "{}", m);
+            }
+        }
+        Ok(())
+    }
+
+    /// Text made of the pieces a survey file is made of, in any order.
+    fn survey_like() -> impl Strategy<Value = String> {
+        let piece = prop_oneof![
+            Just("date".to_string()),
+            Just("course".to_string()),
+            Just("thickness".to_string()),
+            Just("thickness_in".to_string()),
+            Just("point".to_string()),
+            Just("elevation_m".to_string()),
+            Just("azimuth".to_string()),
+            Just("note".to_string()),
+            Just("2024-06-01".to_string()),
+            Just("2023-02-30".to_string()),
+            "[0-9]{1,3}(\\.[0-9]{1,2})?",
+            "-?[0-9]{0,2}[.,][0-9]{0,3}",
+            Just("NaN".to_string()),
+            Just("inf".to_string()),
+            Just(",".to_string()),
+            Just(";".to_string()),
+            Just("\t".to_string()),
+            Just("\n".to_string()),
+            Just("\r\n".to_string()),
+            Just("\"".to_string()),
+            Just("#".to_string()),
+            Just("\u{feff}".to_string()),
+            ".{0,4}",
+        ];
+        proptest::collection::vec(piece, 0..60).prop_map(|v| v.concat())
+    }
+
+    /// Text made of the pieces of a tank file.
+    fn tank_like() -> impl Strategy<Value = String> {
+        let key = prop_oneof![
+            Just("id"),
+            Just("units"),
+            Just("diameter"),
+            Just("max_fill_height"),
+            Just("specific_gravity"),
+            Just("construction"),
+            Just("joint_efficiency"),
+            Just("in_service_since"),
+            Just("height"),
+            Just("nominal_thickness"),
+            Just("material"),
+            Just("yield_strength"),
+            Just("tensile_strength"),
+            Just("rate_basis"),
+            Just("diamter"),
+        ];
+        let value = prop_oneof![
+            Just("\"SI\"".to_string()),
+            Just("\"USC\"".to_string()),
+            Just("\"A36\"".to_string()),
+            Just("1991-05-01".to_string()),
+            Just("nan".to_string()),
+            Just("inf".to_string()),
+            Just("-0.0".to_string()),
+            Just("[1, 2]".to_string()),
+            Just("{ a = 1 }".to_string()),
+            "-?[0-9]{1,6}(\\.[0-9]{1,3})?(e[0-9]{1,3})?",
+            "\"[a-z ]{0,8}\"?",
+        ];
+        let line = prop_oneof![
+            4 => (key, value).prop_map(|(k, v)| format!("{k} = {v}\n")),
+            1 => Just("[[course]]\n".to_string()),
+            1 => Just("[assessment]\n".to_string()),
+            1 => ".{0,6}\n",
+        ];
+        proptest::collection::vec(line, 0..30).prop_map(|v| v.concat())
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(512))]
+
+        #[test]
+        fn survey_reader_never_panics_on_bytes(bytes in proptest::collection::vec(any::<u8>(), 0..2048)) {
+            survey_holds(&bytes)?;
+        }
+
+        #[test]
+        fn survey_reader_never_panics_on_survey_like_text(text in survey_like()) {
+            survey_holds(text.as_bytes())?;
+            let with_header = format!("date,course,point,thickness\n{text}");
+            survey_holds(with_header.as_bytes())?;
+        }
+
+        #[test]
+        fn tank_reader_never_panics_on_bytes(bytes in proptest::collection::vec(any::<u8>(), 0..2048)) {
+            tank_holds(&bytes)?;
+        }
+
+        #[test]
+        fn tank_reader_never_panics_on_tank_like_text(text in tank_like()) {
+            tank_holds(text.as_bytes())?;
+            // parse_tank is the same reader after the UTF-8 check.
+            let _ = parse_tank("tank.toml", &text);
         }
     }
 }

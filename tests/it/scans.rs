@@ -337,7 +337,7 @@ scan_case!(
     missing_key,
     HEADER.replace("# column_pitch = 100\n", "") + GRID,
     "",
-    "missing required key \"column_pitch\" in the scan header"
+    "missing required key \"column_pitch\" in the scan header, expected the spacing of the grid's columns, in the thickness unit (mm or in)"
 );
 scan_case!(
     repeated_key,
