@@ -75,7 +75,7 @@ pub enum Command {
     Check(CheckArgs),
     /// Assess one tank: t_min, rates, remaining life, due dates, allowable fill height.
     #[command(
-        after_help = "Examples:\n  strake assess sample-inspections/kestrel-t12\n  strake assess sample-inspections/kestrel-t12 --format json\n  strake assess sample-inspections/kestrel-t12 --as-of 2014-12-31 --sg 1.0"
+        after_help = "Examples:\n  strake assess sample-inspections/kestrel-t12\n  strake assess sample-inspections/kestrel-t12 --out\n  strake assess sample-inspections/kestrel-t12 --format json\n  strake assess sample-inspections/kestrel-t12 --as-of 2014-12-31 --sg 1.0"
     )]
     Assess(AssessArgs),
     /// Allowable liquid level for the stored product and other specific gravities.
@@ -139,6 +139,14 @@ pub struct AssessArgs {
     /// Exit with code 3 when a course is below t_min.
     #[arg(long)]
     pub fail_below_minimum: bool,
+    /// Also write the report folder (index.html, PNG charts, courses.csv, points.csv,
+    /// result.json) to DIR; without a value, to reports/<tank id>/.
+    #[arg(long, value_name = "DIR", num_args = 0..=1)]
+    pub out: Option<Option<PathBuf>>,
+    /// Put the generation time in the report (without it, the same input gives
+    /// byte-identical files).
+    #[arg(long, requires = "out")]
+    pub stamp: bool,
 }
 
 /// `strake fill-height`.

@@ -60,6 +60,9 @@ pub enum Error {
     /// Writing the output failed.
     #[error("cannot write the output: {0}")]
     Output(#[source] std::io::Error),
+    /// The report folder (`assess --out`) could not be made.
+    #[error(transparent)]
+    Report(#[from] report::folder::ReportError),
 }
 
 impl Error {

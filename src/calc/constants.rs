@@ -341,3 +341,19 @@ pub fn drop_strip_width(units: UnitSystem) -> Length {
         UnitSystem::Usc => Length(DROP_STRIP_WIDTH_FT),
     }
 }
+
+// ---------------------------------------------------------------------------------
+// Chart projections (this project's presentation choices, not a method)
+// ---------------------------------------------------------------------------------
+
+/// Least number of years the charts carry projections beyond the latest survey: the
+/// longest UT thickness survey interval (API 653 6.3.3), so the next survey is
+/// always on the chart.
+pub const CHART_HORIZON_MIN_YEARS: f64 = UT_INTERVAL_MAX_YEARS;
+/// Most years the charts look ahead to show where the shortest-lived course meets
+/// t_min (this project's choice: beyond 30 years a straight-line projection says
+/// little).
+pub const CHART_HORIZON_MAX_YEARS: f64 = 30.0;
+/// Step of the allowable-fill-height outlook, years (this project's choice: a
+/// quarter year keeps the governing envelope's corners sharp on an A4 chart).
+pub const OUTLOOK_STEP_YEARS: f64 = 0.25;

@@ -6,5 +6,6 @@ pub mod reading;
 pub mod required;
 pub mod result;
 pub mod scan;
+pub mod series;
 pub mod tank;
 pub mod warning;

@@ -425,7 +425,8 @@ pub fn area(a: &AreaAssessment, v: &View) -> JsonArea {
     }
 }
 
-fn point(p: &PointResult, v: &View) -> JsonPoint {
+/// The record of one monitoring point (shared with `points.csv`).
+pub fn point(p: &PointResult, v: &View) -> JsonPoint {
     JsonPoint {
         point: p.point.clone(),
         course: p.course,

@@ -2,10 +2,13 @@
 //! computes an engineering value. [`write`] decides stdout versus file.
 
 pub mod caution;
+pub mod chart;
 pub mod check;
 pub mod csv_out;
 pub mod fill;
 pub mod fleet;
+pub mod folder;
+pub mod html;
 pub mod json;
 pub mod required;
 pub mod text;

@@ -254,7 +254,7 @@ fn row_text(cells: &[&str], widths: &[usize]) -> String {
 }
 
 /// Hydrotest height and, over the one-foot limit, the variable-design-point comparison.
-fn shell_checks(a: &Assessment, v: &View) -> String {
+pub fn shell_checks(a: &Assessment, v: &View) -> String {
     let mut o = String::new();
     if let Some(h) = a.hydrotest.tank {
         let shell = a.tank.shell_height();
@@ -632,7 +632,7 @@ fn area_lines(area: &AreaAssessment, v: &View) -> String {
 }
 
 /// The extreme-value estimates per course, when any course has one.
-fn extreme_value_lines(a: &Assessment, v: &View) -> Option<String> {
+pub fn extreme_value_lines(a: &Assessment, v: &View) -> Option<String> {
     let b = bold();
     let mut o = String::new();
     let estimated: Vec<_> = a

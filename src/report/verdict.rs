@@ -224,7 +224,7 @@ fn join_and(parts: &[String]) -> String {
 }
 
 /// The file name of a scan, for sentences.
-fn scan_name(path: &str) -> String {
+pub fn scan_name(path: &str) -> String {
     std::path::Path::new(path)
         .file_name()
         .map_or(path.to_string(), |n| n.to_string_lossy().into_owned())

@@ -82,7 +82,14 @@ fn input_files_are_never_written() {
         .to_str()
         .expect("utf-8 path")
         .to_string();
+    let out = tmp
+        .path()
+        .join("report")
+        .to_str()
+        .expect("utf-8 path")
+        .to_string();
     let runs: Vec<Vec<&str>> = vec![
+        vec!["assess", &dir, "--out", &out, "--stamp"],
         vec!["check", &dir],
         vec!["check", &survey],
         vec!["check", &dir, "--format", "json"],

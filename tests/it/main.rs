@@ -2,6 +2,7 @@
 //! topic; `support` holds the small builder used everywhere.
 
 mod assess;
+mod browser;
 mod check;
 mod corpus;
 mod errors;
@@ -10,6 +11,7 @@ mod fleet;
 mod io_safety;
 mod properties;
 mod reference;
+mod report;
 mod required;
 mod samples;
 mod scans;

@@ -2,7 +2,7 @@
 //! and the README kept true: its commands run, and every output block it shows is
 //! what the binary prints today.
 
-use crate::support::{root, strake};
+use crate::support::{root, strake, strake_at};
 
 const SAMPLES: [&str; 3] = ["kestrel-t12", "kestrel-t03", "kestrel-t07"];
 
@@ -72,7 +72,10 @@ fn readme() -> String {
     std::fs::read_to_string(root().join("README.md")).expect("README.md")
 }
 
-/// Every `cargo run --release -- ARGS` line of the README runs and succeeds.
+/// Every `cargo run --release -- ARGS` line of the README runs and succeeds. The
+/// commands run in a scratch folder that sees the sample tanks, so a command that
+/// writes files (`--out`) writes there, never into the repository (whose committed
+/// reports `report::committed_sample_reports_are_current` compares).
 #[test]
 fn readme_commands_run() {
     let text = readme();
@@ -81,10 +84,42 @@ fn readme_commands_run() {
         .filter_map(|l| l.trim().strip_prefix("cargo run --release -- "))
         .collect();
     assert!(!commands.is_empty(), "README shows no command");
+    let scratch = tempfile::tempdir().expect("temp dir");
+    link_samples(scratch.path());
     for c in commands {
-        let run = strake(c.split_whitespace());
+        let run = strake_at(scratch.path(), c.split_whitespace());
         assert_eq!(run.code, 0, "README command `{c}` failed: {}", run.stderr);
         assert!(!run.stdout.is_empty());
+        if c.split_whitespace().any(|a| a == "--out") {
+            assert!(
+                run.stderr.starts_with("report: reports/"),
+                "`{c}`: {}",
+                run.stderr
+            );
+        }
+    }
+}
+
+/// Makes `dir/sample-inspections` show the repository's sample tanks.
+fn link_samples(dir: &std::path::Path) {
+    let from = root().join("sample-inspections");
+    #[cfg(unix)]
+    std::os::unix::fs::symlink(&from, dir.join("sample-inspections")).expect("symlink");
+    #[cfg(not(unix))]
+    copy_dir(&from, &dir.join("sample-inspections"));
+}
+
+#[cfg(not(unix))]
+fn copy_dir(from: &std::path::Path, to: &std::path::Path) {
+    std::fs::create_dir_all(to).expect("dir");
+    for e in std::fs::read_dir(from).expect("read dir") {
+        let e = e.expect("entry");
+        let target = to.join(e.file_name());
+        if e.path().is_dir() {
+            copy_dir(&e.path(), &target);
+        } else {
+            std::fs::copy(e.path(), target).expect("copy");
+        }
     }
 }
 

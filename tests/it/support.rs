@@ -29,8 +29,18 @@ where
     I: IntoIterator<Item = S>,
     S: AsRef<std::ffi::OsStr>,
 {
+    strake_at(&root(), args)
+}
+
+/// Runs strake with `args` in the working folder `cwd`.
+pub fn strake_at<I, S>(cwd: &Path, args: I) -> Run
+where
+    I: IntoIterator<Item = S>,
+    S: AsRef<std::ffi::OsStr>,
+{
     let out = Command::cargo_bin("strake")
         .expect("binary built")
+        .current_dir(cwd)
         .env("NO_COLOR", "1")
         .args(args)
         .output()

@@ -1,0 +1,105 @@
+//! A real browser renders each sample report: headless Chromium takes a screenshot of
+//! the whole page, which must not be blank and must show the charts' colours (the
+//! Okabe-Ito blue and orange appear only in the inline SVG charts). Skipped with a
+//! note when Chromium is not installed, except under CI=true, where it must run.
+
+use std::path::{Path, PathBuf};
+use std::process::Command;
+
+use crate::report::{CHART_IDS, SAMPLES, generate};
+
+/// The Chromium binary on PATH, if any (Debian names it `chromium`).
+fn chromium() -> Option<PathBuf> {
+    let path = std::env::var_os("PATH")?;
+    std::env::split_paths(&path)
+        .flat_map(|dir| ["chromium", "chromium-browser"].map(|name| dir.join(name)))
+        .find(|p| p.is_file())
+}
+
+/// RGB pixels of a PNG screenshot (png crate).
+fn pixels(png_file: &Path) -> (u32, u32, Vec<u8>) {
+    let bytes = std::fs::read(png_file).expect("screenshot written");
+    let mut decoder = png::Decoder::new(std::io::Cursor::new(bytes));
+    decoder.set_transformations(png::Transformations::EXPAND | png::Transformations::STRIP_16);
+    let mut reader = decoder.read_info().expect("a PNG");
+    let mut buf = vec![0; reader.output_buffer_size().expect("size")];
+    let info = reader.next_frame(&mut buf).expect("a frame");
+    let channels = info.color_type.samples();
+    let rgb = buf[..info.buffer_size()]
+        .chunks(channels)
+        .flat_map(|p| [p[0], p[1], p[2]])
+        .collect();
+    (info.width, info.height, rgb)
+}
+
+/// Pixels within `tol` of `color` in every channel.
+fn count_near(rgb: &[u8], color: [u8; 3], tol: u8) -> usize {
+    rgb.chunks(3)
+        .filter(|p| (0..3).all(|i| p[i].abs_diff(color[i]) <= tol))
+        .count()
+}
+
+#[test]
+fn sample_reports_render_in_a_browser() {
+    let Some(bin) = chromium() else {
+        assert!(
+            std::env::var("CI").as_deref() != Ok("true"),
+            "chromium is not installed; under CI=true the browser test must run \
+             (.ci/run installs it with apt-get install -y chromium)"
+        );
+        eprintln!("note: chromium not found on PATH: browser test skipped");
+        return;
+    };
+    for (sample, _) in SAMPLES {
+        let tmp = tempfile::tempdir().expect("temp");
+        let out = tmp.path().join("report");
+        generate(sample, &out, &[]);
+        let html = std::fs::read_to_string(out.join("index.html")).expect("html");
+        assert!(html.matches("<svg").count() >= 4);
+        for id in CHART_IDS {
+            assert!(
+                html.contains(&format!("<svg id=\"{id}\"")),
+                "{sample}: {id}"
+            );
+        }
+        let shot = tmp.path().join("shot.png");
+        let profile = tmp.path().join("profile");
+        let status = Command::new(&bin)
+            .args([
+                "--headless",
+                "--no-sandbox",
+                "--disable-gpu",
+                "--disable-quic",
+                "--no-first-run",
+                "--disable-background-networking",
+                "--disable-component-update",
+                "--disable-sync",
+                "--hide-scrollbars",
+            ])
+            .arg(format!("--user-data-dir={}", profile.display()))
+            .arg(format!("--screenshot={}", shot.display()))
+            .arg("--window-size=1100,12000")
+            .arg(format!("file://{}", out.join("index.html").display()))
+            .output()
+            .expect("chromium runs");
+        assert!(
+            shot.is_file(),
+            "{sample}: no screenshot; chromium said: {}",
+            String::from_utf8_lossy(&status.stderr)
+        );
+        let (w, h, rgb) = pixels(&shot);
+        assert_eq!((w, h), (1100, 12000), "{sample}");
+        let total = rgb.len() / 3;
+        let inked = rgb.chunks(3).filter(|p| p.iter().any(|&c| c < 200)).count();
+        assert!(
+            inked * 100 > total,
+            "{sample}: page looks blank ({inked} of {total} pixels inked)"
+        );
+        // Chart colours (Okabe-Ito blue 0,114,178 and orange 230,159,0) are used by
+        // the SVG charts only, never by the page's stylesheet.
+        let blue = count_near(&rgb, [0, 114, 178], 12);
+        let orange = count_near(&rgb, [230, 159, 0], 12);
+        assert!(blue > 500, "{sample}: chart blue pixels {blue}");
+        assert!(orange > 500, "{sample}: chart orange pixels {orange}");
+    }
+}
