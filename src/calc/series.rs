@@ -6,7 +6,9 @@
 //! the governing-rate projection from the latest basis thickness; the regression
 //! line; the latest survey's readings with their plausibility flags and their
 //! five-number summary. For the tank: the allowable liquid level of each course and
-//! their least (the governing envelope) from the latest survey to the horizon.
+//! their least (the governing envelope) from the latest survey to the horizon. The
+//! design check of the shell (required.rs: API 650 one-foot and variable-design-point
+//! thickness of every course) for the report's design-check section and chart.
 
 use std::collections::BTreeMap;
 
@@ -14,6 +16,7 @@ use chrono::NaiveDate;
 
 use super::projection::{chart_horizon, fill_outlook, outlook_dates, trend_line};
 use super::rates::RegressionCalc;
+use super::required::required_shell;
 use super::spread::five_numbers;
 use super::survey::suspect_reading;
 use super::units::{Rate, Thickness};
@@ -50,6 +53,7 @@ pub fn report_series(a: &Assessment, readings: &ReadingSet) -> ReportSeries {
         horizon,
         courses,
         fill_outlook: fill_outlook(a, &outlook_dates(start, horizon)),
+        design: required_shell(&a.tank, true),
     }
 }
 
@@ -354,6 +358,38 @@ mod tests {
             (until.date, until.course, until.area),
             (d(2021, 8, 3), 1, Some(0))
         );
+    }
+
+    /// The design check rides with the series, computed for the tank as assessed
+    /// (what-if values included). Hand calculation (API 650 5.6.2 and 5.6.3.2, from
+    /// memory; methods.md s.2): no material given, so the code's unknown-material
+    /// properties Y = 205 MPa, T = 380 MPa: S_d = min(2/3 x 205, 2/5 x 380) =
+    /// min(136.667, 152) = 136.667 MPa; S_t = min(3/4 x 205, 3/7 x 380) =
+    /// min(153.75, 162.857) = 153.75 MPa. Course 1, D 40 m, H 10 m, CA 0:
+    /// t_d = 4.9 x 40 x (10 - 0.3) x G / 136.667 = 1901.2 G / 136.667 = 13.9112 mm at
+    /// G 1.0 and 11.1290 mm at the what-if G 0.8; t_t = 1901.2 / 153.75 = 12.3655 mm
+    /// (water, G does not enter). Minimum nominal for 36 m <= D <= 60 m: 8 mm (API 650
+    /// 5.6.1.1, from memory).
+    #[test]
+    fn design_check_of_the_assessed_tank() {
+        let (a, set) = sample();
+        let s = report_series(&a, &set);
+        assert_eq!(s.design, required_shell(&a.tank, true));
+        let c1 = &s.design.courses[0];
+        assert!((c1.one_foot.design.0 - 13.911_2).abs() < 1e-4, "{c1:?}");
+        assert!((c1.one_foot.test.0 - 12.365_5).abs() < 1e-4);
+        assert_eq!(c1.minimum_nominal, Thickness(8.0));
+        assert_eq!(c1.required_one_foot, c1.one_foot.design);
+        assert_eq!(c1.nominal, Some(Thickness(16.0)));
+        let options = AssessOptions {
+            specific_gravity: Some(0.8),
+            ..AssessOptions::default()
+        };
+        let a = assess(&tank(), &set, options).expect("assessable");
+        let c1 = &report_series(&a, &set).design.courses[0];
+        assert!((c1.one_foot.design.0 - 11.129_0).abs() < 1e-4, "{c1:?}");
+        assert!((c1.one_foot.test.0 - 12.365_5).abs() < 1e-4);
+        assert_eq!(c1.required_one_foot, c1.one_foot.test);
     }
 
     /// A course without readings has empty series and no outlook line.

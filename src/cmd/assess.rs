@@ -39,7 +39,8 @@ pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
             };
             let files = report_files(&a, &series, &v, ctx)?;
             write_folder(&dir, &args.tank.dir.join(SURVEY_DIR), &files)?;
-            Some((dir, files.len()))
+            let charts = files.iter().filter(|f| f.name.ends_with(".png")).count();
+            Some((dir, files.len(), charts))
         }
     };
     write::print(&out, g.color).map_err(Error::Output)?;
@@ -47,12 +48,12 @@ pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
         // CSV rows hold courses only: the warnings go to standard error, one a line.
         write::warnings_to_stderr(&a.warnings).map_err(Error::Output)?;
     }
-    if let Some((dir, count)) = written {
+    if let Some((dir, count, charts)) = written {
         let mut err = std::io::stderr().lock();
         writeln!(
             err,
-            "report: {} ({count} files: index.html, 4 PNG charts, courses.csv, points.csv, \
-             result.json)",
+            "report: {} ({count} files: index.html, {charts} PNG charts, courses.csv, \
+             points.csv, result.json)",
             display(&dir.join("index.html"))
         )
         .map_err(Error::Output)?;

@@ -6,6 +6,7 @@ use chrono::NaiveDate;
 
 use crate::calc::survey::SuspectKind;
 use crate::calc::units::{Length, Thickness};
+use crate::model::required::RequiredShell;
 
 /// Everything the charts of one tank need beyond the [`Assessment`](super::result::Assessment).
 #[derive(Debug, Clone, PartialEq)]
@@ -18,6 +19,11 @@ pub struct ReportSeries {
     pub courses: Vec<CourseSeries>,
     /// Allowable liquid level from the latest survey to the horizon.
     pub fill_outlook: FillOutlook,
+    /// The design check beside the in-service assessment: the required thickness of
+    /// every course by the one-foot and the variable-design-point methods of API 650
+    /// (`calc::required::required_shell`, the numbers of `strake required`), for the
+    /// assessed tank's liquid level and specific gravity.
+    pub design: RequiredShell,
 }
 
 /// The readings of one course at one survey date.

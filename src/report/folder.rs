@@ -1,4 +1,5 @@
-//! The report folder of `assess --out`: index.html, the four PNG charts,
+//! The report folder of `assess --out`: index.html, the PNG charts (the four overview
+//! charts, a heat map per grid scan, the Gumbel plot, the design check),
 //! courses.csv, points.csv and result.json. Every file is rendered from the one result
 //! model (and the chart series), then written atomically; the same input gives the
 //! same bytes.
@@ -16,7 +17,7 @@ use crate::report::{csv_out, html, json, write};
 #[derive(Debug, Clone, PartialEq)]
 pub struct ReportFile {
     /// File name inside the report folder.
-    pub name: &'static str,
+    pub name: String,
     /// Its bytes.
     pub bytes: Vec<u8>,
 }
@@ -67,25 +68,25 @@ pub fn report_files(
 ) -> Result<Vec<ReportFile>, ReportError> {
     let charts = chart::render_all(Inputs { a, s, v })?;
     let mut files = vec![ReportFile {
-        name: "index.html",
+        name: "index.html".into(),
         bytes: html::render(a, s, v, &charts, ctx).into_bytes(),
     }];
-    for c in &charts {
+    for c in charts {
         files.push(ReportFile {
             name: c.file,
-            bytes: c.png.clone(),
+            bytes: c.png,
         });
     }
     files.push(ReportFile {
-        name: "courses.csv",
+        name: "courses.csv".into(),
         bytes: csv_out::courses_csv(a, v)?.into_bytes(),
     });
     files.push(ReportFile {
-        name: "points.csv",
+        name: "points.csv".into(),
         bytes: csv_out::points_csv(a, v)?.into_bytes(),
     });
     files.push(ReportFile {
-        name: "result.json",
+        name: "result.json".into(),
         bytes: json::render(a, v).into_bytes(),
     });
     Ok(files)
@@ -105,7 +106,7 @@ pub fn write_folder(dir: &Path, surveys: &Path, files: &[ReportFile]) -> Result<
         source,
     })?;
     for f in files {
-        let path = dir.join(f.name);
+        let path = dir.join(&f.name);
         write::write_atomic(&path, &f.bytes).map_err(|source| ReportError::Write {
             path: path.display().to_string(),
             source,

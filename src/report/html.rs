@@ -1,9 +1,11 @@
 //! `index.html`: one self-contained page (inline CSS and SVG, no script, nothing
 //! fetched) that answers first whether the tank is fit, until when, up to what level
 //! and when to look again, then shows every input, the per-course results, the
-//! charts, hot spots, warnings, how each number was obtained (every formula with its
-//! numbers substituted and its source), the caution and a sign-off block. A print
-//! stylesheet gives clean A4 pages.
+//! charts, the local thin areas, the extreme-value estimates, hot spots, warnings, the
+//! design check, how each number was obtained (every formula with its numbers
+//! substituted and its source), the caution and a sign-off block. A print stylesheet
+//! gives clean A4 pages. The sections on scans, extreme values and the design check
+//! are in `sections.rs`.
 //!
 //! Rendered from the result model, the chart series and the drawn charts; nothing
 //! here computes an engineering value. Every text that comes from a user's file is
@@ -20,9 +22,10 @@ use crate::model::result::{Assessment, CourseCondition, CourseResult, FillLimit}
 use crate::model::series::ReportSeries;
 use crate::model::tank::{Material, RateBasis, ThicknessBasis};
 use crate::report::caution::CAUTION;
-use crate::report::chart::Chart;
+use crate::report::chart::{Chart, Place};
 use crate::report::folder::ReportContext;
-use crate::report::text::{extreme_value_lines, local_area_lines, shell_checks};
+use crate::report::sections;
+use crate::report::text::shell_checks;
 use crate::report::verdict::{interval_text, scan_name, sg_text, verdict_sentences};
 use crate::report::view::View;
 
@@ -43,7 +46,7 @@ pub fn esc(s: &str) -> String {
 }
 
 /// A number with `d` decimals.
-fn n(x: f64, d: usize) -> String {
+pub(super) fn n(x: f64, d: usize) -> String {
     format!("{x:.d$}")
 }
 
@@ -75,8 +78,11 @@ pub fn render(
     inputs(&mut o, a, v, ctx);
     results(&mut o, a, v);
     figures(&mut o, s, v, charts);
+    sections::local_areas(&mut o, a, v, charts);
+    sections::extreme_values(&mut o, a, v, charts);
     hot_spots(&mut o, a, v);
     warnings(&mut o, a);
+    sections::design_check(&mut o, a, s, v, charts);
     derivations(&mut o, a);
     sign_off(&mut o, a);
     o.push_str("</body>\n</html>\n");
@@ -107,7 +113,10 @@ fn masthead(o: &mut String, a: &Assessment, v: &View, name: Option<&str>, ctx: R
         if v.to == v.from {
             String::new()
         } else {
-            format!(" (the tank's own: {}; section 7 uses them)", v.from.name())
+            format!(
+                " (the tank's own: {}; the working of each number uses them)",
+                v.from.name()
+            )
         },
         env!("CARGO_PKG_VERSION"),
         ctx.stamp
@@ -120,8 +129,11 @@ fn masthead(o: &mut String, a: &Assessment, v: &View, name: Option<&str>, ctx: R
          <li><a href=\"#inputs\">Tank and inputs</a></li>\
          <li><a href=\"#results\">Results by course</a></li>\
          <li><a href=\"#charts\">Charts</a></li>\
+         <li><a href=\"#areas\">Local thin areas</a></li>\
+         <li><a href=\"#extreme-values\">Thinnest spot where nobody measured</a></li>\
          <li><a href=\"#hot-spots\">Hot spots</a></li>\
          <li><a href=\"#warnings\">Warnings</a></li>\
+         <li><a href=\"#design-check\">Design check</a></li>\
          <li><a href=\"#working\">How each number was obtained</a></li>\
          <li><a href=\"#sign-off\">Caution and sign-off</a></li>\
          </ol></nav>\n</header>\n",
@@ -322,7 +334,7 @@ fn verdict(o: &mut String, a: &Assessment, series: &ReportSeries, v: &View) {
          <div><dt>Up to what level?</dt><dd>{}</dd></div>\n\
          <div><dt>When to look again?</dt><dd>{}</dd></div>\n</dl>\n\
          <p class=\"sentences\">{}</p>\n<p class=\"note\">A screening aid: read the caution \
-         in section 8 before relying on it.</p>\n</section>\n",
+         in section 11 before relying on it.</p>\n</section>\n",
         esc(&headline),
         esc(&fit_now),
         esc(&until),
@@ -611,7 +623,7 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
         let _ = writeln!(
             o,
             "<table class=\"num\">\n<caption>Scanned local thin areas (API 653 4.3.2; the \
-             working is in section 7)</caption>\n<thead><tr><th>Scan</th><th>Course</th>\
+             working is in section 5)</caption>\n<thead><tr><th>Scan</th><th>Course</th>\
              <th>Date</th><th>Rules at the operating level</th><th>Allowable level now</th>\
              <th>… at next UT</th></tr>\n<tr class=\"units\"><th></th><th></th><th></th><th></th>\
              <th>{lu}</th><th>{lu}</th></tr></thead>\n<tbody>"
@@ -648,11 +660,6 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
         let _ = writeln!(o, "<p class=\"note\">{}</p>", esc(checks.trim()));
     }
     o.push_str("</section>\n");
-}
-
-/// A text block without its first line (the heading the page shows itself).
-fn without_heading(text: &str) -> String {
-    text.lines().skip(1).collect::<Vec<_>>().join("\n")
 }
 
 /// Text output without its terminal styles (bold, colours).
@@ -702,44 +709,50 @@ fn figures(o: &mut String, s: &ReportSeries, v: &View, charts: &[Chart]) {
         v.to.name()
     );
     for (i, c) in charts.iter().enumerate() {
-        let svg = c.svg.replacen(
-            "<svg ",
-            &format!(
-                "<svg id=\"{}\" class=\"chart\" role=\"img\" aria-labelledby=\"{}-title\" ",
-                c.id, c.id
-            ),
-            1,
-        );
-        let svg = match svg.find('>') {
-            Some(end) => format!(
-                "{}<title id=\"{}-title\">{}</title>{}",
-                &svg[..=end],
-                c.id,
-                esc(c.title),
-                &svg[end + 1..]
-            ),
-            None => svg,
-        };
-        let _ = writeln!(
-            o,
-            "<figure id=\"fig-{}\">\n{}<figcaption><b>Figure {}. {}.</b> {} <a href=\"{}\">PNG \
-             copy</a></figcaption>\n</figure>",
-            &c.id["chart-".len().min(c.id.len())..],
-            svg.trim_end(),
-            i + 1,
-            esc(c.title),
-            chart_caption(c.id),
-            esc(c.file)
-        );
+        if c.place == Place::Overview {
+            figure(o, c, i + 1, chart_caption(&c.id));
+        }
     }
     o.push_str("</section>\n");
+}
+
+/// One chart as a figure: its SVG inline (with an id and a title for screen readers),
+/// its number, title and caption, and a link to its PNG copy.
+pub(super) fn figure(o: &mut String, c: &Chart, number: usize, caption: &str) {
+    let svg = c.svg.replacen(
+        "<svg ",
+        &format!(
+            "<svg id=\"{}\" class=\"chart\" role=\"img\" aria-labelledby=\"{}-title\" ",
+            c.id, c.id
+        ),
+        1,
+    );
+    let svg = match svg.find('>') {
+        Some(end) => format!(
+            "{}<title id=\"{}-title\">{}</title>{}",
+            &svg[..=end],
+            c.id,
+            esc(&c.title),
+            &svg[end + 1..]
+        ),
+        None => svg,
+    };
+    let _ = writeln!(
+        o,
+        "<figure id=\"fig-{}\">\n{}<figcaption><b>Figure {number}. {}.</b> {caption} <a \
+         href=\"{}\">PNG copy</a></figcaption>\n</figure>",
+        c.id.strip_prefix("chart-").unwrap_or(&c.id),
+        svg.trim_end(),
+        esc(&c.title),
+        esc(&c.file)
+    );
 }
 
 fn hot_spots(o: &mut String, a: &Assessment, v: &View) {
     let (lu, tu, ru) = (v.to.length_unit(), v.to.thickness_unit(), v.to.rate_unit());
     let _ = writeln!(
         o,
-        "<section id=\"hot-spots\">\n<h2><span class=\"no\">5</span> Hot spots</h2>\n<p>The \
+        "<section id=\"hot-spots\">\n<h2><span class=\"no\">7</span> Hot spots</h2>\n<p>The \
          monitoring points with the least remaining life (each point's own rate from its first \
          to its last reading, against its course's t_min). All {} points are in points.csv.</p>",
         a.points.len()
@@ -781,7 +794,7 @@ fn hot_spots(o: &mut String, a: &Assessment, v: &View) {
 fn warnings(o: &mut String, a: &Assessment) {
     let _ = writeln!(
         o,
-        "<section id=\"warnings\">\n<h2><span class=\"no\">6</span> Warnings ({})</h2>",
+        "<section id=\"warnings\">\n<h2><span class=\"no\">8</span> Warnings ({})</h2>",
         a.warnings.len()
     );
     if a.warnings.is_empty() {
@@ -798,51 +811,51 @@ fn warnings(o: &mut String, a: &Assessment) {
 
 /// Formulas with their numbers, in the tank's own units (the form the code prints for
 /// that system).
-struct Fmt {
-    u: UnitSystem,
+pub(super) struct Fmt {
+    pub(super) u: UnitSystem,
 }
 
 impl Fmt {
-    fn len(&self, x: f64) -> String {
+    pub(super) fn len(&self, x: f64) -> String {
         n(x, 2)
     }
-    fn thk(&self, x: f64) -> String {
+    pub(super) fn thk(&self, x: f64) -> String {
         match self.u {
             UnitSystem::Si => n(x, 2),
             UnitSystem::Usc => n(x, 4),
         }
     }
     /// A computed thickness, one decimal more than a reading.
-    fn thk_result(&self, x: f64) -> String {
+    pub(super) fn thk_result(&self, x: f64) -> String {
         match self.u {
             UnitSystem::Si => n(x, 3),
             UnitSystem::Usc => n(x, 4),
         }
     }
-    fn stress(&self, x: f64) -> String {
+    pub(super) fn stress(&self, x: f64) -> String {
         stress_number(x, self.u)
     }
-    fn rate(&self, x: f64) -> String {
+    pub(super) fn rate(&self, x: f64) -> String {
         match self.u {
             UnitSystem::Si => n(x, 4),
             UnitSystem::Usc => n(x, 6),
         }
     }
-    fn lu(&self) -> &'static str {
+    pub(super) fn lu(&self) -> &'static str {
         self.u.length_unit()
     }
-    fn tu(&self) -> &'static str {
+    pub(super) fn tu(&self) -> &'static str {
         self.u.thickness_unit()
     }
-    fn su(&self) -> &'static str {
+    pub(super) fn su(&self) -> &'static str {
         self.u.stress_unit()
     }
-    fn ru(&self) -> &'static str {
+    pub(super) fn ru(&self) -> &'static str {
         self.u.rate_unit()
     }
 }
 
-fn calc_row(o: &mut String, what: &str, working: &str, source: &str) {
+pub(super) fn calc_row(o: &mut String, what: &str, working: &str, source: &str) {
     let _ = writeln!(
         o,
         "<tr><th scope=\"row\">{what}</th><td class=\"working\">{working}</td><td class=\"source\">{source}</td></tr>"
@@ -853,12 +866,14 @@ fn derivations(o: &mut String, a: &Assessment) {
     let f = Fmt { u: a.tank.units };
     let _ = writeln!(
         o,
-        "<section id=\"working\">\n<h2><span class=\"no\">7</span> How each number was \
+        "<section id=\"working\">\n<h2><span class=\"no\">10</span> How each number was \
          obtained</h2>\n<p>Every formula with its numbers substituted, in the tank's own units \
          ({}: lengths in {}, thicknesses in {}, stresses in {}), in the form the code prints \
          for that system. Intermediate values are shown rounded; the results were computed \
          unrounded. \"From memory\" marks a clause or value written from memory of the \
-         standard and not checked against the printed edition.</p>",
+         standard and not checked against the printed edition. The local thin areas are \
+         worked in section 5, the extreme-value estimates in section 6 and the design check \
+         in section 9.</p>",
         f.u.name(),
         f.lu(),
         f.tu(),
@@ -867,28 +882,6 @@ fn derivations(o: &mut String, a: &Assessment) {
     survey_table(o, a, &f);
     for c in &a.courses {
         course_working(o, a, c, &f);
-    }
-    let own = View::new(a.tank.units, None);
-    if !a.areas.is_empty() {
-        let _ = writeln!(
-            o,
-            "<article class=\"course-calc\">\n<h3>Scanned local thin areas (grid scans; API 653 \
-             4.3.2 with the local t_min of 4.3.3.1, no one-foot offset)</h3>\n<pre \
-             class=\"working\">{}</pre>\n<p class=\"note\">Source: API 653 4.3.2.1 and \
-             4.3.2.2 (averaging length, t1, t2, pits) with the local t_min of 4.3.3.1, from \
-             memory of the clauses; each rule inverted for the liquid level it allows.</p>\n\
-             </article>",
-            esc(&without_heading(&plain(&local_area_lines(a, &own))))
-        );
-    }
-    if let Some(ev) = extreme_value_lines(a, &own) {
-        let _ = writeln!(
-            o,
-            "<article class=\"course-calc\">\n<h3>Thinnest spot where nobody measured (extreme \
-             values, ASTM G16 practice; estimates only)</h3>\n\
-             <pre class=\"working\">{}</pre>\n</article>",
-            esc(&without_heading(&plain(&ev)))
-        );
     }
     tank_working(o, a, &f);
     o.push_str("</section>\n");
@@ -1428,7 +1421,7 @@ fn tank_working(o: &mut String, a: &Assessment, f: &Fmt) {
 fn sign_off(o: &mut String, a: &Assessment) {
     let _ = writeln!(
         o,
-        "<section id=\"sign-off\">\n<h2><span class=\"no\">8</span> Caution and sign-off</h2>\n\
+        "<section id=\"sign-off\">\n<h2><span class=\"no\">11</span> Caution and sign-off</h2>\n\
          <p class=\"caution\"><b>Caution.</b> {}</p>\n<div class=\"signatures\">",
         esc(CAUTION)
     );
@@ -1517,6 +1510,14 @@ svg.chart { display: block; width: 100%; height: auto; border: 1px solid var(--r
 figcaption { font-size: 13px; margin-top: 6px; color: var(--ink); }
 figcaption a { color: var(--accent); }
 ol.warnings li { margin-bottom: 4px; }
+article.area { margin: 14px 0 26px; }
+.callout { border-left: 4px solid var(--accent); background: var(--band); padding: 8px 14px; }
+table.rules, table.design, table.extreme { width: 100%; }
+table.num td.wrap { white-space: normal; }
+table.design tr.short td { background: #fdecea; }
+table.steps { margin: 6px 0; font-size: 12px; }
+ul.design-warnings li { margin-bottom: 4px; }
+code { font: 12px "DejaVu Sans Mono", Menlo, Consolas, monospace; }
 table.working { width: 100%; font-size: 13px; }
 table.working th[scope=row] { text-align: left; font-weight: bold; width: 11em; }
 table.working thead th { text-align: left; }
@@ -1537,7 +1538,8 @@ table.sign td.signature { height: 4em; }
   body { font-size: 10pt; }
   header.masthead, main { max-width: none; padding: 0; }
   nav.toc { display: none; }
-  .verdict, .badge, .standing, thead th, tr.governing td, .caution {
+  .verdict, .badge, .standing, thead th, tr.governing td, .caution, .callout,
+  table.design tr.short td {
     -webkit-print-color-adjust: exact; print-color-adjust: exact; }
   section { margin: 14px 0; }
   h2, h3 { break-after: avoid; page-break-after: avoid; }

@@ -11,6 +11,7 @@ pub mod folder;
 pub mod html;
 pub mod json;
 pub mod required;
+pub mod sections;
 pub mod text;
 pub mod verdict;
 pub mod view;

@@ -14,25 +14,58 @@ pub const SAMPLES: [(&str, &str); 3] = [
     ("kestrel-t07", "KR-T07"),
 ];
 
-/// Every file of a report folder.
-pub const FILES: [&str; 8] = [
+/// The files of every report folder: four overview charts and the design check, the
+/// page and the data files.
+pub const FILES: [&str; 9] = [
     "courses.csv",
     "fill-height-outlook.png",
     "index.html",
     "points.csv",
     "reading-distribution.png",
+    "required-thickness.png",
     "result.json",
     "shell-profile.png",
     "thickness-history.png",
 ];
 
-/// The id of each chart's inline SVG.
-pub const CHART_IDS: [&str; 4] = [
+/// The id of each chart's inline SVG that every report has.
+pub const CHART_IDS: [&str; 5] = [
     "chart-history",
     "chart-profile",
     "chart-fill",
     "chart-spread",
+    "chart-required",
 ];
+
+/// The charts a sample adds to those of every report, as (SVG id, PNG file): the
+/// Gumbel plot where a course has an extreme-value estimate (KR-T12 and KR-T03 have
+/// drops with azimuths; KR-T07's readings have none) and a heat map per grid scan
+/// (KR-T12 has one).
+pub fn sample_charts(sample: &str) -> Vec<(&'static str, &'static str)> {
+    match sample {
+        "kestrel-t12" => vec![
+            ("chart-gumbel", "gumbel-plot.png"),
+            ("chart-scan-1", "scan-1-heat-map.png"),
+        ],
+        "kestrel-t03" => vec![("chart-gumbel", "gumbel-plot.png")],
+        _ => Vec::new(),
+    }
+}
+
+/// Every file of a sample's report folder, sorted.
+pub fn sample_files(sample: &str) -> Vec<&'static str> {
+    let mut v: Vec<&str> = FILES.to_vec();
+    v.extend(sample_charts(sample).iter().map(|c| c.1));
+    v.sort_unstable();
+    v
+}
+
+/// Every chart id of a sample's report.
+pub fn sample_chart_ids(sample: &str) -> Vec<&'static str> {
+    let mut v: Vec<&str> = CHART_IDS.to_vec();
+    v.extend(sample_charts(sample).iter().map(|c| c.0));
+    v
+}
 
 /// Writes the report of a sample tank into `out`.
 pub fn generate(sample: &str, out: &Path, extra: &[&str]) -> Run {
@@ -101,8 +134,9 @@ fn distinct_points(sample: &str) -> usize {
     seen.len()
 }
 
-/// Each sample's folder holds exactly the eight files; the PNGs decode (png crate) at
-/// twice the SVG width; the HTML carries the four charts inline and no script; the
+/// Each sample's folder holds exactly its files (the nine of every report and its own
+/// charts); the PNGs decode (png crate) at twice the SVG width; the HTML carries every
+/// chart inline, each once, and no script; the
 /// CSV and JSON files are byte for byte what `--format csv` and `--format json`
 /// print; points.csv has a row for every monitoring point of the survey files; the
 /// terminal output is unchanged but for one line on standard error.
@@ -117,17 +151,23 @@ fn report_folder_holds_every_file() {
             run.stdout, plain.stdout,
             "{sample}: terminal output changed"
         );
+        let expected = sample_files(sample);
+        let pngs = expected.iter().filter(|n| n.ends_with(".png")).count();
         assert_eq!(
             run.stderr,
             format!(
-                "report: {} (8 files: index.html, 4 PNG charts, courses.csv, points.csv, \
-                 result.json)\n",
-                out.join("index.html").display()
+                "report: {} ({} files: index.html, {pngs} PNG charts, courses.csv, \
+                 points.csv, result.json)\n",
+                out.join("index.html").display(),
+                expected.len()
             )
         );
         let files = files_in(&out);
-        assert_eq!(files.keys().map(String::as_str).collect::<Vec<_>>(), FILES);
-        for name in FILES.iter().filter(|n| n.ends_with(".png")) {
+        assert_eq!(
+            files.keys().map(String::as_str).collect::<Vec<_>>(),
+            expected
+        );
+        for name in expected.iter().filter(|n| n.ends_with(".png")) {
             let decoder = png::Decoder::new(std::io::Cursor::new(files[*name].clone()));
             let reader = decoder.read_info().expect("a PNG");
             let info = reader.info();
@@ -142,11 +182,13 @@ fn report_folder_holds_every_file() {
             assert!(size < 600_000, "{sample} {name}: {size} bytes");
         }
         let html = text(&files, "index.html");
-        assert!(
-            html.matches("<svg").count() >= 4,
+        let ids = sample_chart_ids(sample);
+        assert_eq!(
+            html.matches("<svg").count(),
+            ids.len(),
             "{sample}: inline SVG charts"
         );
-        for id in CHART_IDS {
+        for id in ids {
             assert_eq!(
                 html.matches(&format!("<svg id=\"{id}\"")).count(),
                 1,
@@ -301,7 +343,7 @@ fn stamp_adds_the_time_to_the_page_only() {
     generate("kestrel-t07", &plain, &[]);
     generate("kestrel-t07", &stamped, &["--stamp"]);
     let (p, s) = (files_in(&plain), files_in(&stamped));
-    for name in FILES {
+    for name in sample_files("kestrel-t07") {
         if name == "index.html" {
             assert_ne!(p[name], s[name]);
         } else {
@@ -486,4 +528,297 @@ fn hostile_fixture_is_a_valid_tank() {
     assert_eq!(v["tank_id"], "<x>");
     // Course 1 t_min = 4.9 x 30 x 6.7 x 0.85 / 171.6 = 4.87858 mm (tests/it/assess.rs).
     assert!((num(&v, "/courses/0/t_min") - 4.878_58).abs() < 1e-4);
+}
+
+/// The part of the page from `<section id="{id}"` to its end.
+fn section<'a>(html: &'a str, id: &str) -> &'a str {
+    let start = html
+        .find(&format!("<section id=\"{id}\""))
+        .unwrap_or_else(|| panic!("section {id}"));
+    let rest = &html[start..];
+    &rest[..rest.find("</section>").expect("section end")]
+}
+
+/// RGB pixels of a PNG (png crate).
+fn rgb_pixels(bytes: &[u8]) -> Vec<[u8; 3]> {
+    let mut reader = png::Decoder::new(std::io::Cursor::new(bytes.to_vec()))
+        .read_info()
+        .expect("a PNG");
+    let mut buf = vec![0; reader.output_buffer_size().expect("size")];
+    let info = reader.next_frame(&mut buf).expect("a frame");
+    buf[..info.buffer_size()]
+        .chunks(3)
+        .map(|p| [p[0], p[1], p[2]])
+        .collect()
+}
+
+/// The new charts sit in their own sections, inline and linked to their PNG copy: the
+/// heat map of each scan under "Local thin areas", the Gumbel plot under the
+/// extreme-value section, the design check's chart under it. Where a sample has no
+/// scan or no estimate, its section says so, with the reason the JSON gives. The heat
+/// map colours the least and the greatest reading that is not a pit with the two
+/// ends of viridis (#440154, and plotters' #fee825 for #fde725: van der Walt and
+/// Smith 2015), and fills the pits with vermillion (213, 94, 0).
+#[test]
+fn new_charts_sit_in_their_sections() {
+    for (sample, _) in SAMPLES {
+        let tmp = tempfile::tempdir().expect("temp");
+        let out = tmp.path().join("r");
+        generate(sample, &out, &[]);
+        let files = files_in(&out);
+        let html = text(&files, "index.html");
+        let v: serde_json::Value =
+            serde_json::from_slice(&files["result.json"]).expect("result.json");
+        let design = section(&html, "design-check");
+        assert!(design.contains("<svg id=\"chart-required\""), "{sample}");
+        assert!(
+            design.contains("href=\"required-thickness.png\""),
+            "{sample}"
+        );
+        assert!(
+            design.contains("not a replacement for it"),
+            "{sample}: the design check says what it is"
+        );
+        let areas = section(&html, "areas");
+        let scans = v["areas"].as_array().expect("areas");
+        for i in 1..=scans.len() {
+            assert!(
+                areas.contains(&format!("<svg id=\"chart-scan-{i}\"")),
+                "{sample}"
+            );
+            assert!(areas.contains(&format!("href=\"scan-{i}-heat-map.png\"")));
+        }
+        if scans.is_empty() {
+            assert!(areas.contains("No grid scan"), "{sample}");
+            assert!(!areas.contains("<svg"), "{sample}");
+        }
+        let extreme = section(&html, "extreme-values");
+        let courses = v["courses"].as_array().expect("courses");
+        let estimated = courses.iter().filter(|c| c["extreme_value"].is_object());
+        if estimated.count() > 0 {
+            assert!(extreme.contains("<svg id=\"chart-gumbel\""), "{sample}");
+            assert!(extreme.contains("href=\"gumbel-plot.png\""), "{sample}");
+        } else {
+            assert!(!extreme.contains("<svg"), "{sample}");
+        }
+        for c in courses {
+            if let Some(why) = c["extreme_value_reason"].as_str() {
+                let shown = why.replace('\'', "&#39;");
+                assert!(extreme.contains(&shown), "{sample}: reason {why}");
+            }
+        }
+        if let Some(map) = files.get("scan-1-heat-map.png") {
+            let px = rgb_pixels(map);
+            let count = |c: [u8; 3]| px.iter().filter(|p| **p == c).count();
+            // One cell is about 60 x 60 pixels at scale 2 (less the ring on t2's cell).
+            assert!(count([68, 1, 84]) > 1500, "{sample}: t2's cell");
+            assert!(count([254, 232, 37]) > 1500, "{sample}: the thickest cell");
+            let pits = v["areas"][0]["pits"].as_u64().expect("pits");
+            assert!(count([213, 94, 0]) as u64 > pits * 2000, "{sample}: pits");
+        }
+    }
+}
+
+/// The design-check table of each sample's page shows the numbers of `strake required
+/// --format json` for the same tank, rounded as printed (thickness to 0.01 mm / 0.001
+/// in, stress to 0.1 MPa / 1 psi), and the applicability of both methods.
+#[test]
+fn design_check_table_equals_required_json() {
+    for (sample, _) in SAMPLES {
+        let tmp = tempfile::tempdir().expect("temp");
+        let out = tmp.path().join("r");
+        generate(sample, &out, &[]);
+        let html = text(&files_in(&out), "index.html");
+        let run = strake([
+            "required",
+            &format!("sample-inspections/{sample}"),
+            "--format",
+            "json",
+        ]);
+        assert_eq!(run.code, 0, "{}", run.stderr);
+        let v = json(&run);
+        let (td, sd) = if v["units"]["thickness"] == "mm" {
+            (2, 1)
+        } else {
+            (3, 0)
+        };
+        let design = section(&html, "design-check");
+        let rows = table_rows(design, "<table class=\"num design\">");
+        let courses = v["courses"].as_array().expect("courses");
+        assert_eq!(rows.len(), courses.len(), "{sample}");
+        let cell = |i: usize, key: &str, d: usize| -> String {
+            v["courses"][i][key]
+                .as_f64()
+                .map_or("-".to_string(), |x| format!("{x:.d$}"))
+        };
+        for (i, row) in rows.iter().enumerate() {
+            let expected = [
+                format!("{}", v["courses"][i]["course"]),
+                cell(i, "corrosion_allowance", td),
+                cell(i, "design_stress", sd),
+                cell(i, "test_stress", sd),
+                cell(i, "onefoot_design", td),
+                cell(i, "onefoot_test", td),
+                cell(i, "vdp_design", td),
+                cell(i, "vdp_test", td),
+                cell(i, "minimum_nominal", td),
+                cell(i, "required_onefoot", td),
+                cell(i, "required_vdp", td),
+                cell(i, "nominal_thickness", td),
+                cell(i, "difference", td),
+            ];
+            assert_eq!(row, &expected, "{sample}: course {}", i + 1);
+        }
+        let vdp = &v["variable_design_point"];
+        let ratio = format!("{:.2}", num(vdp, "/ratio"));
+        assert!(design.contains(&ratio), "{sample}: L/H {ratio}");
+        let check = &design[design.find("Variable-design-point method").expect("row")..];
+        let check = &check[..check.find("</tr>").expect("row end")];
+        let applies = vdp["applies"].as_bool().expect("applies");
+        assert_eq!(check.contains("<b>applies</b>"), applies, "{sample}");
+        let one_foot = v["onefoot_applies"].as_bool().expect("one-foot");
+        let row = &design[design.find("One-foot method").expect("row")..];
+        let row = &row[..row.find("</tr>").expect("row end")];
+        assert_eq!(row.contains("<b>applies</b>"), one_foot, "{sample}");
+    }
+}
+
+/// A one-column grid whose t1 window is not its critical window (API 653 4.3.2.1 with
+/// the local t_min of 4.3.3.1, from memory), on the SI scan fixture of scans.rs
+/// (D 20 m, level 8 m, G 1.0, S 171.6 MPa, N I = 0.749898 mm). Rows 100 mm apart from
+/// z = 0.5 m: 5.40, 5.30, 5.28, 5.30, 5.32 mm. t2 = 5.28; L = 1.068 x sqrt(20,000 x
+/// 5.28) = 347.06 mm, k = 4. Windows: rows 1-4 mean 21.28 / 4 = 5.32 at z 0.5;
+/// rows 2-5 mean 21.20 / 4 = 5.30 at z 0.6 (t1). t_min(z) = 4.9 x 20 x (8 - z) /
+/// 171.6: 4.283217 at z 0.5, 4.226107 at z 0.6. Margins: 5.32 - 5.033115 = 0.286885;
+/// 5.30 - 4.976005 = 0.323995: the lower window (rows 1-4) is critical.
+fn critical_fixture() -> TankFixture {
+    let scan = "# invented grid\n# course = 1\n# date = 2024-06-01\n# bottom_elevation = 0.5\n\
+                # row_pitch = 100\n# column_pitch = 100\n5.40\n5.30\n5.28\n5.30\n5.32\n";
+    TankFixture::new(crate::scans::SI_TANK)
+        .survey("s.csv", crate::scans::SI_SURVEY)
+        .scan("critical.csv", scan)
+}
+
+/// Each scan's rule table in the page equals the JSON `areas` record of the same run
+/// (z, H, local t_min, fraction, N I, required, measured, pass per rule; the pit
+/// spacing's worst length, limit and span), for the sample scan, the hand-worked grid
+/// of tests/it/scans.rs (whose pit rules fail) and a grid whose critical window is not
+/// its t1 window; the working names the allowable levels of the JSON.
+#[test]
+fn scan_rule_tables_equal_the_json_areas() {
+    let tmp = tempfile::tempdir().expect("temp");
+    let fixtures = [crate::scans::si_fixture(), critical_fixture()];
+    let mut dirs: Vec<(PathBuf, PathBuf)> = vec![(
+        root().join("sample-inspections/kestrel-t12"),
+        tmp.path().join("t12"),
+    )];
+    for (i, fx) in fixtures.iter().enumerate() {
+        dirs.push((fx.path().to_path_buf(), tmp.path().join(format!("fx{i}"))));
+    }
+    let mut critical_seen = false;
+    for (tank, out) in &dirs {
+        let run = strake([
+            "assess",
+            tank.to_str().expect("utf-8"),
+            "--out",
+            out.to_str().expect("utf-8"),
+        ]);
+        assert_eq!(run.code, 0, "{}", run.stderr);
+        let files = files_in(out);
+        let html = text(&files, "index.html");
+        let v: serde_json::Value =
+            serde_json::from_slice(&files["result.json"]).expect("result.json");
+        let td = if v["units"]["thickness"] == "mm" {
+            2
+        } else {
+            3
+        };
+        let areas = v["areas"].as_array().expect("areas");
+        assert!(!areas.is_empty(), "{}", tank.display());
+        for (i, x) in areas.iter().enumerate() {
+            let article = &html[html
+                .find(&format!("<article class=\"area\" id=\"area-{}\">", i + 1))
+                .expect("article")..];
+            let article = &article[..article.find("</article>").expect("end")];
+            assert!(files.contains_key(&format!("scan-{}-heat-map.png", i + 1)));
+            let rows = table_rows(article, "<table class=\"num rules\">");
+            let t = |p: &str| format!("{:.td$}", num(x, p));
+            let l = |p: &str| format!("{:.2}", num(x, p));
+            let verdict = |p: &str| {
+                if x.pointer(p).and_then(serde_json::Value::as_bool) == Some(true) {
+                    "pass"
+                } else {
+                    "fail"
+                }
+            };
+            let rule_row = |row: &Vec<String>, key: &str| {
+                let expected = [
+                    l(&format!("/{key}/elevation")),
+                    l(&format!("/{key}/liquid_height")),
+                    t(&format!("/{key}/t_min")),
+                    format!("{}", num(x, &format!("/{key}/fraction"))),
+                    t(&format!("/{key}/future_loss")),
+                    t(&format!("/{key}/required")),
+                    t(&format!("/{key}/measured")),
+                    verdict(&format!("/{key}/pass")).to_string(),
+                ];
+                assert_eq!(&row[2..], &expected, "{key}");
+            };
+            let mut r = rows.iter();
+            let t1 = r.next().expect("t1 row");
+            assert_eq!(t1[0], "t1");
+            rule_row(t1, "t1_rule");
+            let (first, last) = (&x["t1_rule"]["first_row"], &x["t1_rule"]["last_row"]);
+            assert!(
+                t1[1].contains(&format!(
+                    "column {}, rows {first}–{last}",
+                    x["t1_rule"]["column"]
+                )),
+                "{:?}",
+                t1[1]
+            );
+            if x["t1_first_row"] != *first {
+                critical_seen = true;
+                assert!(t1[1].contains("(critical window)"), "{:?}", t1[1]);
+                assert!(html.contains("critical window of the t1 rule"));
+            } else {
+                assert!(t1[1].contains("(t1 window)"), "{:?}", t1[1]);
+            }
+            let t2 = r.next().expect("t2 row");
+            assert_eq!(t2[0], "t2");
+            rule_row(t2, "t2_rule");
+            assert_eq!(
+                t2[1],
+                format!("row {}, column {}", x["t2_row"], x["t2_column"])
+            );
+            if x["pit_depth_rule"].is_object() {
+                let p = r.next().expect("pit depth row");
+                assert_eq!(p[0], "pit depth");
+                rule_row(p, "pit_depth_rule");
+            }
+            let sp = r.next().expect("pit spacing row");
+            assert_eq!(sp[0], "pit spacing");
+            assert_eq!(
+                sp[7],
+                format!(
+                    "≤ {} in {}",
+                    t("/pit_spacing_rule/limit"),
+                    t("/pit_spacing_rule/span")
+                )
+            );
+            assert_eq!(sp[8], t("/pit_spacing_rule/worst_length"));
+            assert_eq!(sp[9], verdict("/pit_spacing_rule/pass"));
+            assert!(r.next().is_none(), "no other rule");
+            let now = format!("<b>{} ", l("/max_fill_height"));
+            assert!(article.contains(&now), "allowable level now {now}");
+            if x["max_fill_height_next"].is_number() {
+                let next = format!("<b>{} ", l("/max_fill_height_next"));
+                assert!(article.contains(&next), "next {next}");
+            }
+        }
+    }
+    assert!(
+        critical_seen,
+        "the critical fixture has its own critical window"
+    );
 }

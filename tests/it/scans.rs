@@ -7,7 +7,7 @@ use crate::support::{TankFixture, close, json, num, strake};
 
 /// One course, 9 m high, D 20 m, level 8.0 m, SG 1.0, A36 as explicit strengths
 /// (S = min(0.80 x 250, 0.429 x 400) = 171.6 MPa, API 653 table 4.1, from memory).
-const SI_TANK: &str = r#"
+pub const SI_TANK: &str = r#"
 id = "FX-S"
 name = "scan fixture"
 units = "SI"
@@ -24,7 +24,7 @@ tensile_strength = 400
 "#;
 
 /// Two surveys ten years apart: basis (minimum) 7.50 -> 7.00 mm.
-const SI_SURVEY: &str = "date,course,point,thickness_mm\n\
+pub const SI_SURVEY: &str = "date,course,point,thickness_mm\n\
     2014-06-01,1,A,7.50\n2014-06-01,1,B,7.80\n\
     2024-06-01,1,A,7.00\n2024-06-01,1,B,7.30\n";
 
@@ -51,7 +51,7 @@ fn grid_text(factor: f64) -> String {
         .join("\n")
 }
 
-fn si_fixture() -> TankFixture {
+pub fn si_fixture() -> TankFixture {
     let scan = format!(
         "# fixture grid, made up\n# course = 1\n# date = 2024-06-01\n# bottom_elevation = 0.5\n\
          # row_pitch = 100\n# column_pitch = 100\n# pit_threshold = 3.0\n{}\n",

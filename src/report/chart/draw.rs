@@ -337,6 +337,39 @@ impl<DB: DrawingBackend> Pen<'_, DB> {
         }
         Ok(())
     }
+    /// A heat-map cell between two backend corners: its fill and its mark. `bleed`
+    /// (backend pixels) widens the fill to the right and downwards, under the next
+    /// cell, so that no seam of background shows between neighbours where a browser
+    /// scales the SVG; the mark keeps to the cell.
+    pub fn cell(
+        &self,
+        a: (i32, i32),
+        b: (i32, i32),
+        sw: &Swatch,
+        bleed: (i32, i32),
+    ) -> DrawResult<DB> {
+        let (x0, x1) = (a.0.min(b.0), a.0.max(b.0));
+        let (y0, y1) = (a.1.min(b.1), a.1.max(b.1));
+        self.root.draw(&Rectangle::new(
+            [(x0, y0), (x1 + bleed.0, y1 + bleed.1)],
+            sw.fill.filled(),
+        ))?;
+        // The mark keeps off the cell's edges, so neighbouring marks stay apart.
+        let inset = ((x1 - x0).min(y1 - y0) / 5).max(1);
+        let (x0, x1, y0, y1) = (x0 + inset, x1 - inset, y0 + inset, y1 - inset);
+        match sw.mark {
+            CellMark::Plain => Ok(()),
+            CellMark::Diagonal => self.line(
+                &[(x0, y1), (x1, y0)],
+                &Stroke::new(sw.ink, 1.2, Dash::Solid),
+            ),
+            CellMark::Cross => {
+                let s = Stroke::new(sw.ink, 2.2, Dash::Solid);
+                self.line(&[(x0, y0), (x1, y1)], &s)?;
+                self.line(&[(x0, y1), (x1, y0)], &s)
+            }
+        }
+    }
     /// The chart's title and its second line, top left.
     pub fn title(&self, title: &str, subtitle: &str) -> DrawResult<DB> {
         self.text(title, 14.0, 10.0, TITLE_SIZE, INK, (HPos::Left, VPos::Top))?;
@@ -372,6 +405,28 @@ pub const LABEL_SIZE: f64 = 15.0;
 /// Secondary text size.
 pub const SMALL_SIZE: f64 = 14.0;
 
+/// What is drawn over a filled cell of a heat map.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum CellMark {
+    /// Nothing.
+    Plain,
+    /// One diagonal line, bottom left to top right (a cell not measured).
+    Diagonal,
+    /// A bold diagonal cross (a pit).
+    Cross,
+}
+
+/// A filled cell of a heat map, or its legend sample.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Swatch {
+    /// Fill.
+    pub fill: RGBColor,
+    /// Mark over the fill.
+    pub mark: CellMark,
+    /// Colour of the mark.
+    pub ink: RGBColor,
+}
+
 /// One legend entry: a sample of the line and/or marker, and its label.
 #[derive(Debug, Clone, PartialEq)]
 pub struct LegendEntry {
@@ -383,6 +438,8 @@ pub struct LegendEntry {
     pub marker: Option<Marker>,
     /// A vertical line sample (a date marked on a time axis).
     pub vertical: bool,
+    /// A filled cell sample (heat maps).
+    pub swatch: Option<Swatch>,
 }
 
 impl LegendEntry {
@@ -393,6 +450,7 @@ impl LegendEntry {
             stroke: Some(stroke),
             marker,
             vertical: false,
+            swatch: None,
         }
     }
     /// A marker alone.
@@ -402,6 +460,7 @@ impl LegendEntry {
             stroke: None,
             marker: Some(marker),
             vertical: false,
+            swatch: None,
         }
     }
     /// A vertical line (a date).
@@ -411,6 +470,17 @@ impl LegendEntry {
             stroke: Some(stroke),
             marker: None,
             vertical: true,
+            swatch: None,
+        }
+    }
+    /// A filled cell (heat maps), with an optional outline sample around it.
+    pub fn swatch(label: impl Into<String>, swatch: Swatch) -> Self {
+        LegendEntry {
+            label: label.into(),
+            stroke: None,
+            marker: None,
+            vertical: false,
+            swatch: Some(swatch),
         }
     }
 }
@@ -486,6 +556,21 @@ pub fn draw_legend<DB: DrawingBackend>(
     for (e, &(col, row, _)) in entries.iter().zip(&grid.cells) {
         let ex = x + col as f64 * col_w;
         let ey = y + 5.0 + row as f64 * ROW_H + ROW_H / 2.0;
+        if let Some(sw) = &e.swatch {
+            let mid = ex + SAMPLE_W / 2.0;
+            pen.cell(
+                pen.p(mid - 9.0, ey - 9.0),
+                pen.p(mid + 9.0, ey + 9.0),
+                sw,
+                (0, 0),
+            )?;
+            pen.rect(
+                pen.p(mid - 9.0, ey - 9.0),
+                pen.p(mid + 9.0, ey + 9.0),
+                None,
+                Some(&Stroke::new(GREY, 1.0, Dash::Solid)),
+            )?;
+        }
         if let Some(s) = &e.stroke {
             if e.vertical {
                 let mid = ex + SAMPLE_W / 2.0;

@@ -1,19 +1,28 @@
-//! The report's four charts, drawn with plotters from the result model and the
-//! chart series (`model::series`, computed in `calc::series`). Nothing here computes
-//! an engineering value: this code maps values to positions and draws them.
+//! The report's charts, drawn with plotters from the result model and the chart
+//! series (`model::series`, computed in `calc::series`): the four overview charts,
+//! a heat map of every grid scan, the Gumbel plot of the extreme-value estimates and
+//! the design check's required thickness. Nothing here computes an engineering
+//! value: this code maps values to positions and colours and draws them.
 //!
 //! Each chart is drawn by the same code twice: as SVG (inline in index.html, scale 1,
 //! 900 logical pixels wide, about 180 mm on an A4 page) and as PNG (beside it, scale
 //! 2, with a 10 pixel/mm resolution chunk so that it pastes 180 mm wide). Text is
 //! measured and drawn with the embedded DejaVu Sans (src/report/fonts/), never a
 //! system font. Colours are the Okabe-Ito palette, and every series is also told
-//! apart by its dash pattern or marker, so the charts read in grey print.
+//! apart by its dash pattern or marker, so the charts read in grey print; the heat
+//! maps colour thickness with viridis, whose lightness rises steadily (grey print,
+//! colour-blind readers).
 
 pub mod draw;
 pub mod fill;
+pub mod gumbel;
+pub mod heatmap;
 pub mod history;
 pub mod profile;
+pub mod required;
 pub mod spread;
+
+use rayon::prelude::*;
 
 use plotters::coord::Shift;
 use plotters::prelude::*;
@@ -30,15 +39,30 @@ pub const PNG_SCALE: u32 = 2;
 /// PNG resolution: 1800 pixels over 180 mm.
 const PNG_PIXELS_PER_METRE: u32 = 10_000;
 
+/// Where a chart belongs in index.html.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Place {
+    /// The charts section (the four overview charts).
+    Overview,
+    /// The local-thin-areas section: the heat map of `Assessment::areas[i]`.
+    Area(usize),
+    /// The extreme-value section: the Gumbel plot.
+    ExtremeValues,
+    /// The design-check section: required thickness by both methods.
+    Design,
+}
+
 /// One rendered chart.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Chart {
     /// Element id in index.html.
-    pub id: &'static str,
+    pub id: String,
     /// PNG file name in the report folder.
-    pub file: &'static str,
+    pub file: String,
     /// Title (also drawn in the image).
-    pub title: &'static str,
+    pub title: String,
+    /// Where it goes in the page.
+    pub place: Place,
     /// SVG text.
     pub svg: String,
     /// PNG bytes.
@@ -50,7 +74,7 @@ pub struct Chart {
 #[error("chart \"{chart}\": {message}")]
 pub struct ChartError {
     /// Which chart.
-    pub chart: &'static str,
+    pub chart: String,
     /// What failed.
     pub message: String,
 }
@@ -78,36 +102,136 @@ pub trait Figure {
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB>;
 }
 
-/// Renders the four charts, in report order (each on its own thread: the PNG
-/// encoding dominates, and the charts share nothing but the font table).
-pub fn render_all(inputs: Inputs) -> Result<Vec<Chart>, ChartError> {
-    register_font().map_err(|message| ChartError {
-        chart: "font",
-        message,
-    })?;
-    std::thread::scope(|scope| {
-        let jobs = [
-            scope.spawn(move || render(&history::History(inputs), "thickness-history.png")),
-            scope.spawn(move || render(&profile::Profile(inputs), "shell-profile.png")),
-            scope.spawn(move || render(&fill::FillOutlookChart(inputs), "fill-height-outlook.png")),
-            scope.spawn(move || render(&spread::Spread(inputs), "reading-distribution.png")),
-        ];
-        jobs.into_iter()
-            .map(|job| {
-                job.join().unwrap_or_else(|_| {
-                    Err(ChartError {
-                        chart: "chart",
-                        message: "drawing stopped unexpectedly".to_string(),
-                    })
-                })
-            })
-            .collect()
-    })
+/// One chart to draw.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Job {
+    History,
+    Profile,
+    Fill,
+    Spread,
+    HeatMap(usize),
+    Gumbel,
+    Design,
 }
 
-fn render<F: Figure>(f: &F, file: &'static str) -> Result<Chart, ChartError> {
+impl Job {
+    fn render(self, inputs: Inputs) -> Result<Chart, ChartError> {
+        let fixed = |id: &str, file: &str, title: &str| (id.into(), file.into(), title.into());
+        match self {
+            Job::History => {
+                let f = history::History(inputs);
+                render(
+                    &f,
+                    Place::Overview,
+                    fixed(
+                        history::History::ID,
+                        "thickness-history.png",
+                        history::History::TITLE,
+                    ),
+                )
+            }
+            Job::Profile => {
+                let f = profile::Profile(inputs);
+                render(
+                    &f,
+                    Place::Overview,
+                    fixed(
+                        profile::Profile::ID,
+                        "shell-profile.png",
+                        profile::Profile::TITLE,
+                    ),
+                )
+            }
+            Job::Fill => {
+                let f = fill::FillOutlookChart(inputs);
+                render(
+                    &f,
+                    Place::Overview,
+                    fixed(
+                        fill::FillOutlookChart::ID,
+                        "fill-height-outlook.png",
+                        fill::FillOutlookChart::TITLE,
+                    ),
+                )
+            }
+            Job::Spread => {
+                let f = spread::Spread(inputs);
+                render(
+                    &f,
+                    Place::Overview,
+                    fixed(
+                        spread::Spread::ID,
+                        "reading-distribution.png",
+                        spread::Spread::TITLE,
+                    ),
+                )
+            }
+            Job::HeatMap(i) => {
+                let f = heatmap::HeatMap { inputs, area: i };
+                let n = i + 1;
+                render(
+                    &f,
+                    Place::Area(i),
+                    (
+                        format!("{}-{n}", heatmap::HeatMap::ID),
+                        format!("scan-{n}-heat-map.png"),
+                        format!("{} {n}", heatmap::HeatMap::TITLE),
+                    ),
+                )
+            }
+            Job::Gumbel => {
+                let f = gumbel::GumbelPlot(inputs);
+                render(
+                    &f,
+                    Place::ExtremeValues,
+                    fixed(
+                        gumbel::GumbelPlot::ID,
+                        "gumbel-plot.png",
+                        gumbel::GumbelPlot::TITLE,
+                    ),
+                )
+            }
+            Job::Design => {
+                let f = required::RequiredChart(inputs);
+                render(
+                    &f,
+                    Place::Design,
+                    fixed(
+                        required::RequiredChart::ID,
+                        "required-thickness.png",
+                        required::RequiredChart::TITLE,
+                    ),
+                )
+            }
+        }
+    }
+}
+
+/// Renders every chart, in page order: the four overview charts, a heat map per grid
+/// scan, the Gumbel plot (when a course has an extreme-value estimate) and the design
+/// check. The charts share nothing but the font table and are drawn in parallel
+/// (rayon): the PNG encoding dominates.
+pub fn render_all(inputs: Inputs) -> Result<Vec<Chart>, ChartError> {
+    register_font().map_err(|message| ChartError {
+        chart: "font".to_string(),
+        message,
+    })?;
+    let mut jobs = vec![Job::History, Job::Profile, Job::Fill, Job::Spread];
+    jobs.extend((0..inputs.a.areas.len()).map(Job::HeatMap));
+    if gumbel::GumbelPlot(inputs).has_panels() {
+        jobs.push(Job::Gumbel);
+    }
+    jobs.push(Job::Design);
+    jobs.into_par_iter().map(|j| j.render(inputs)).collect()
+}
+
+fn render<F: Figure>(
+    f: &F,
+    place: Place,
+    (id, file, title): (String, String, String),
+) -> Result<Chart, ChartError> {
     let fail = |message: String| ChartError {
-        chart: F::ID,
+        chart: id.clone(),
         message,
     };
     let (w, h) = f.size();
@@ -124,9 +248,10 @@ fn render<F: Figure>(f: &F, file: &'static str) -> Result<Chart, ChartError> {
     }
     let png = encode_png(&rgb, pw, ph).map_err(|e| fail(e.to_string()))?;
     Ok(Chart {
-        id: F::ID,
+        id,
         file,
-        title: F::TITLE,
+        title,
+        place,
         svg,
         png,
     })
