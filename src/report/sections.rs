@@ -792,6 +792,7 @@ pub fn design_check(o: &mut String, a: &Assessment, s: &ReportSeries, v: &View, 
         );
     }
     design_table(o, d, v);
+    design_points_table(o, d, v);
     if !d.warnings.is_empty() {
         o.push_str("<ul class=\"design-warnings\">\n");
         for w in &d.warnings {
@@ -909,6 +910,52 @@ fn design_table(o: &mut String, d: &RequiredShell, v: &View) {
          thickness (API 650 5.6.1.1). One-foot − VDP: the steel the variable-design-point \
          method saves.</p>\n",
     );
+}
+
+/// The rest of the `strake required` course fields: where each course is, and the
+/// design point x of the variable-design-point method with its steps, per condition.
+fn design_points_table(o: &mut String, d: &RequiredShell, v: &View) {
+    if !d.vdp_applicability.holds {
+        return;
+    }
+    let (lu, tu) = (v.to.length_unit(), v.to.thickness_unit());
+    let xd = match v.to {
+        UnitSystem::Si => 1,
+        UnitSystem::Usc => 2,
+    };
+    let x = |c: &Option<CourseCalc>| {
+        c.as_ref()
+            .and_then(CourseCalc::design_point)
+            .map_or("-".to_string(), |x| n(v.thk(Thickness(x)), xd))
+    };
+    let steps = |c: &Option<CourseCalc>| match c {
+        Some(CourseCalc::Upper(u)) => u.steps.len().to_string(),
+        Some(CourseCalc::Second(s)) => s.t2a.steps.len().to_string(),
+        _ => "-".to_string(),
+    };
+    let _ = writeln!(
+        o,
+        "<table class=\"num design-points\">\n<caption>Design point x of the \
+         variable-design-point method (above the bottom of the course; the second course's \
+         is that of t2a)</caption>\n<thead><tr><th>Course</th><th>Bottom z</th>\
+         <th>Height</th><th>x, design</th><th>Steps, design</th><th>x, test</th>\
+         <th>Steps, test</th></tr>\n<tr class=\"units\"><th></th><th>{lu}</th><th>{lu}</th>\
+         <th>{tu}</th><th></th><th>{tu}</th><th></th></tr></thead>\n<tbody>"
+    );
+    for c in &d.courses {
+        let _ = writeln!(
+            o,
+            "<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
+            c.number,
+            n(v.len(c.bottom_elevation), 2),
+            n(v.len(c.height), 2),
+            x(&c.vdp_design),
+            steps(&c.vdp_design),
+            x(&c.vdp_test),
+            steps(&c.vdp_test)
+        );
+    }
+    o.push_str("</tbody>\n</table>\n");
 }
 
 fn upper_steps(o: &mut String, u: &UpperCalc, f: &Fmt) {

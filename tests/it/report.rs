@@ -619,9 +619,10 @@ fn new_charts_sit_in_their_sections() {
     }
 }
 
-/// The design-check table of each sample's page shows the numbers of `strake required
+/// The design-check tables of each sample's page show the numbers of `strake required
 /// --format json` for the same tank, rounded as printed (thickness to 0.01 mm / 0.001
-/// in, stress to 0.1 MPa / 1 psi), and the applicability of both methods.
+/// in, stress to 0.1 MPa / 1 psi, design points to 0.1 mm / 0.01 in, levels to 0.01),
+/// and the applicability of both methods.
 #[test]
 fn design_check_table_equals_required_json() {
     for (sample, _) in SAMPLES {
@@ -668,6 +669,28 @@ fn design_check_table_equals_required_json() {
                 cell(i, "difference", td),
             ];
             assert_eq!(row, &expected, "{sample}: course {}", i + 1);
+        }
+        if v["variable_design_point"]["applies"] == true {
+            let xd = if td == 2 { 1 } else { 2 };
+            let rows = table_rows(design, "<table class=\"num design-points\">");
+            assert_eq!(rows.len(), courses.len(), "{sample}");
+            let count = |i: usize, key: &str| {
+                v["courses"][i][key]
+                    .as_u64()
+                    .map_or("-".to_string(), |k| k.to_string())
+            };
+            for (i, row) in rows.iter().enumerate() {
+                let expected = [
+                    format!("{}", v["courses"][i]["course"]),
+                    cell(i, "bottom_elevation", 2),
+                    cell(i, "height", 2),
+                    cell(i, "vdp_design_point_design", xd),
+                    count(i, "vdp_iterations_design"),
+                    cell(i, "vdp_design_point_test", xd),
+                    count(i, "vdp_iterations_test"),
+                ];
+                assert_eq!(row, &expected, "{sample}: course {}", i + 1);
+            }
         }
         let vdp = &v["variable_design_point"];
         let ratio = format!("{:.2}", num(vdp, "/ratio"));
