@@ -11,6 +11,7 @@
 
 pub mod draw;
 pub mod fill;
+pub mod fleet;
 pub mod history;
 pub mod profile;
 pub mod spread;
