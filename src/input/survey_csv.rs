@@ -855,7 +855,9 @@ struct RowParser<'a> {
     cols: &'a Columns,
     delimiter: u8,
     /// The last date text and its value: survey files repeat one date many times.
-    date_cache: Option<(Vec<u8>, NaiveDate)>,
+    /// (Every valid date text is ten bytes, YYYY-MM-DD: kept as an array, compared
+    /// without a call.)
+    date_cache: Option<([u8; 10], NaiveDate)>,
 }
 
 impl RowParser<'_> {
@@ -1012,8 +1014,10 @@ impl RowParser<'_> {
 
         // thickness
         let (ti, suffix) = cols.thickness;
-        let unit_name = suffix_unit(suffix, ctx.units, true);
+        // (The unit's name is only needed for messages.)
+        let unit_name = || suffix_unit(suffix, ctx.units, true);
         let expected = || {
+            let unit_name = unit_name();
             format!(
                 "a thickness in {unit_name}, e.g. {}",
                 example_thickness(unit_name)
@@ -1027,7 +1031,7 @@ impl RowParser<'_> {
             return Err(self.range(
                 line,
                 ti,
-                format!("{} {unit_name}", number_text(raw)),
+                format!("{} {}", number_text(raw), unit_name()),
                 format!("is not positive, expected {expected}"),
             ));
         }
@@ -1038,7 +1042,7 @@ impl RowParser<'_> {
             return Err(self.range(
                 line,
                 ti,
-                format!("{} {unit_name}", number_text(raw)),
+                format!("{} {}", number_text(raw), unit_name()),
                 format!(
                     "is more than 3 x the nominal {} of course {course}: a unit mistake? {}",
                     Shown::thickness(*nominal, units),
@@ -1087,8 +1091,8 @@ impl RowParser<'_> {
         };
         let elevation = match cols.elevation {
             Some((i, suffix)) => {
-                let unit_name = suffix_unit(suffix, ctx.units, false);
-                let expected = || format!("a height above the tank bottom in {unit_name}");
+                let unit_name = || suffix_unit(suffix, ctx.units, false);
+                let expected = || format!("a height above the tank bottom in {}", unit_name());
                 match self.number(row, i, line, &expected)? {
                     None => None,
                     Some(v) if v < 0.0 => {
@@ -1096,7 +1100,7 @@ impl RowParser<'_> {
                         return Err(self.range(
                             line,
                             i,
-                            format!("{} {unit_name}", number_text(v)),
+                            format!("{} {}", number_text(v), unit_name()),
                             format!("is negative, expected {expected}"),
                         ));
                     }
@@ -1109,7 +1113,7 @@ impl RowParser<'_> {
                             return Err(self.range(
                                 line,
                                 i,
-                                format!("{} {unit_name}", number_text(v)),
+                                format!("{} {}", number_text(v), unit_name()),
                                 format!(
                                     "is above the shell height {} {lu}: a unit mistake? {}",
                                     number_text(shell.0),
@@ -1177,7 +1181,8 @@ impl RowParser<'_> {
         let i = self.cols.date;
         let raw = row.get(i);
         if let Some((text, date)) = &self.date_cache
-            && text.as_slice() == raw
+            && raw.len() == 10
+            && raw.first_chunk::<10>() == Some(text)
         {
             return Ok(*date);
         }
@@ -1245,7 +1250,9 @@ impl RowParser<'_> {
                 ),
             ));
         }
-        self.date_cache = Some((raw.to_vec(), date));
+        if let Ok(text) = <[u8; 10]>::try_from(raw) {
+            self.date_cache = Some((text, date));
+        }
         Ok(date)
     }
 }

@@ -174,6 +174,21 @@ pub struct PointNames {
 /// No key (the end of a hash chain).
 const NO_KEY: u32 = u32::MAX;
 
+/// `a == b`, for the short texts of point ids without a call to the C library: up to
+/// 16 bytes as two (overlapping) eight-byte words.
+#[inline]
+fn same_bytes(a: &[u8], b: &[u8]) -> bool {
+    if a.len() != b.len() {
+        return false;
+    }
+    match (a.first_chunk::<8>(), a.last_chunk::<8>()) {
+        (Some(a0), Some(a1)) if a.len() <= 16 => {
+            b.first_chunk::<8>() == Some(a0) && b.last_chunk::<8>() == Some(a1)
+        }
+        _ => a == b,
+    }
+}
+
 /// The hash of an id's bytes.
 fn id_hash(id: &[u8]) -> u64 {
     use std::hash::BuildHasher;
@@ -201,7 +216,7 @@ impl PointNames {
     fn find(&mut self, id: &[u8]) -> Option<PointKey> {
         let guess = self.previous.map_or(0, |p| p + 1);
         let key = match self.bytes(guess) {
-            Some(name) if name == id => guess,
+            Some(name) if same_bytes(name, id) => guess,
             _ => {
                 let mut k = *self.by_hash.get(&id_hash(id))?;
                 while self.bytes(k)? != id {
@@ -273,6 +288,22 @@ mod tests {
         assert!(n.key_of_bytes(b"\xC3").is_err());
         assert_eq!(n.len(), 5);
         assert_eq!(n.key("F"), PointKey(5));
+    }
+
+    /// The short comparison is `==` (the reference), for every length up to 20 and a
+    /// difference at every position.
+    #[test]
+    fn same_bytes_is_equality() {
+        for n in 0..=20usize {
+            let a: Vec<u8> = (0..n as u8).map(|i| b'A' + i).collect();
+            assert!(same_bytes(&a, &a.clone()));
+            for k in 0..n {
+                let mut b = a.clone();
+                b[k] ^= 1;
+                assert!(!same_bytes(&a, &b), "{n} {k}");
+            }
+            assert!(!same_bytes(&a, &a[..n.saturating_sub(1)]) || n == 0);
+        }
     }
 
     /// Many ids, asked for out of order: each keeps its key and its text (the map path,
