@@ -103,7 +103,10 @@ fn masthead(o: &mut String, fleet: &Fleet, root: &str, restricted: bool) {
     if fleet.failed() > 0 {
         o.push_str("<li><a href=\"#not-assessed\">Not assessed</a></li>");
     }
-    o.push_str("<li><a href=\"#caution\">Caution</a></li></ol></nav>\n</header>\n");
+    o.push_str(
+        "<li><a href=\"#caution\">Caution</a></li></ol></nav>\n<p class=\"note\">A screening \
+         aid: read the caution at the end before relying on it.</p>\n</header>\n",
+    );
 }
 
 fn overview(o: &mut String, fleet: &Fleet, tanks: &[&FleetTank], monitor_years: f64) {
@@ -306,24 +309,24 @@ fn figures(o: &mut String, s: &FleetSeries, charts: &[Chart]) {
             esc(c.title),
             esc(c.file)
         );
-        if c.id == "chart-due" && !s.due_years.is_empty() {
-            o.push_str(
-                "<table class=\"num years\">\n<caption>Inspections due per year</caption>\n\
-                 <thead><tr><th>Year</th><th>UT surveys</th><th>External</th><th>Total</th></tr>\
-                 </thead>\n<tbody>\n",
+    }
+    if !s.due_years.is_empty() {
+        o.push_str(
+            "<table class=\"num years\">\n<caption>Inspections due per year</caption>\n\
+             <thead><tr><th>Year</th><th>UT surveys</th><th>External</th><th>Total</th></tr>\
+             </thead>\n<tbody>\n",
+        );
+        for y in &s.due_years {
+            let _ = writeln!(
+                o,
+                "<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
+                y.year,
+                y.ut,
+                y.external,
+                y.ut + y.external
             );
-            for y in &s.due_years {
-                let _ = writeln!(
-                    o,
-                    "<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td></tr>",
-                    y.year,
-                    y.ut,
-                    y.external,
-                    y.ut + y.external
-                );
-            }
-            o.push_str("</tbody>\n</table>\n");
         }
+        o.push_str("</tbody>\n</table>\n");
     }
     o.push_str("</section>\n");
 }
@@ -455,7 +458,8 @@ figcaption a { color: var(--accent); }
   tr, .tiles, table.years, #caution { break-inside: avoid; page-break-inside: avoid; }
   #charts { break-before: page; page-break-before: always; }
   figure { break-inside: avoid; page-break-inside: avoid; margin: 0 0 6mm; }
-  #charts figure + table + figure, #charts figure + figure { break-before: page; page-break-before: always; }
+  dl.tiles { grid-template-columns: repeat(6, 1fr); }
+  .tile dd { font-size: 13pt; }
   svg.chart { border: none; max-height: 170mm; width: auto; max-width: 100%; }
   a { color: inherit; text-decoration: none; }
 }
