@@ -310,13 +310,12 @@ impl Figure for LifeChart<'_> {
                     .is_some_and(|y| y < monitor)
             })
             .count();
-        pen.title(
-            Self::TITLE,
-            &format!(
-                "{} tanks, least first · {under} under {monitor:.0} years",
-                lives.len()
-            ),
-        )?;
+        let subtitle = match lives.len() {
+            0 => "no tank assessed".to_string(),
+            1 => format!("1 tank · {under} under {monitor:.0} years"),
+            n => format!("{n} tanks, least first · {under} under {monitor:.0} years"),
+        };
+        pen.title(Self::TITLE, &subtitle)?;
         let axis = self.axis_years();
         let plot_h = self.plot_h();
         let area = pen.area(SIDE, TITLE_HEIGHT, f64::from(WIDTH) - 2.0 * SIDE, plot_h);
