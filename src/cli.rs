@@ -93,7 +93,7 @@ pub enum Command {
     /// Assess every tank folder below a folder, in parallel, and list them by next due
     /// date: governing course, remaining life, due dates, allowable fill height, status.
     #[command(
-        after_help = "Examples:\n  strake fleet sample-inspections\n  strake fleet sample-inspections --format csv > plan.csv\n\nA folder that cannot be assessed is listed with its error and the others go on;\nthe exit code is then 1."
+        after_help = "Examples:\n  strake fleet sample-inspections\n  strake fleet sample-inspections --format csv > plan.csv\n  strake fleet sample-inspections --out\n\nA folder that cannot be assessed is listed with its error and the others go on;\nthe exit code is then 1."
     )]
     Fleet(FleetArgs),
 }
@@ -104,6 +104,11 @@ pub struct FleetArgs {
     /// The folder to search: every folder below it that holds a tank.toml is a tank.
     #[arg(value_name = "DIR")]
     pub dir: PathBuf,
+    /// Also write each tank's report folder and a fleet page (index.html with the plan
+    /// table, links to each tank and charts) to DIR; without a value, to
+    /// reports/fleet/.
+    #[arg(long, value_name = "DIR", num_args = 0..=1)]
+    pub out: Option<Option<PathBuf>>,
 }
 
 /// `strake check`.

@@ -63,6 +63,9 @@ pub enum Error {
     /// The report folder (`assess --out`) could not be made.
     #[error(transparent)]
     Report(#[from] report::folder::ReportError),
+    /// The fleet report folder (`fleet --out`) could not be made.
+    #[error(transparent)]
+    FleetReport(#[from] report::fleet_out::FleetOutError),
 }
 
 impl Error {

@@ -12,9 +12,14 @@
 //! - order: next due date, earliest first; ties by tank id, then folder; folders that
 //!   failed last, by folder.
 
+use chrono::{Datelike, NaiveDate};
+
+use super::constants::MONITOR_REMAINING_LIFE_YEARS;
 use super::life::Status;
 use super::units::Length;
-use crate::model::fleet::{FleetEntry, FleetTank, TankStatus};
+use crate::model::fleet::{
+    DueMonth, DueYear, Fleet, FleetEntry, FleetSeries, FleetTank, LifeBar, TankStatus,
+};
 use crate::model::result::{Assessment, FillLimit};
 
 fn capped(limit: Option<FillLimit>, shell: Length) -> Option<Length> {
@@ -64,8 +69,109 @@ pub fn fleet_tank(folder: String, a: &Assessment) -> FleetTank {
         operating_fill_height: a.tank.max_fill_height,
         shell_height: shell,
         fill_restricted: allowable.is_some_and(|h| h.0 < a.tank.max_fill_height.0),
+        fill_restricted_next: capped(s.max_fill_height_next, shell)
+            .is_some_and(|h| h.0 < a.tank.max_fill_height.0),
         below_minimum: s.below_minimum.clone(),
         warnings: a.warnings.len(),
+        report: None,
+    }
+}
+
+/// The first day of the month of `d`.
+fn month_of(d: NaiveDate) -> NaiveDate {
+    d.with_day(1).unwrap_or(d)
+}
+
+/// The first day of the month after `m`.
+fn next_month(m: NaiveDate) -> NaiveDate {
+    m.checked_add_months(chrono::Months::new(1))
+        .unwrap_or(NaiveDate::MAX)
+}
+
+/// What the fleet page's charts draw (no method of its own: counts and an order):
+/// - inspections due per calendar month and year: each assessed tank's next UT
+///   survey and next external inspection, counted in the month they fall due, over
+///   every month from the first due date to the last;
+/// - each assessed tank's governing course and remaining life, least first, with the
+///   remaining life under which a course is to be monitored (life.rs).
+pub fn fleet_series(fleet: &Fleet) -> FleetSeries {
+    let tanks: Vec<&FleetTank> = fleet
+        .entries
+        .iter()
+        .filter_map(|e| match e {
+            FleetEntry::Tank(t) => Some(t.as_ref()),
+            FleetEntry::Failed { .. } => None,
+        })
+        .collect();
+    let dues: Vec<(NaiveDate, bool)> = tanks
+        .iter()
+        .flat_map(|t| {
+            [
+                t.next_ut_inspection.map(|d| (month_of(d), true)),
+                t.next_external_inspection.map(|d| (month_of(d), false)),
+            ]
+        })
+        .flatten()
+        .collect();
+    let mut counts: std::collections::BTreeMap<NaiveDate, (usize, usize)> = Default::default();
+    for (month, ut) in dues {
+        let c = counts.entry(month).or_default();
+        if ut {
+            c.0 += 1;
+        } else {
+            c.1 += 1;
+        }
+    }
+    let mut due_months = Vec::new();
+    if let (Some(&first), Some(&last)) = (counts.keys().next(), counts.keys().next_back()) {
+        let mut m = first;
+        while m <= last {
+            let (ut, external) = counts.get(&m).copied().unwrap_or_default();
+            due_months.push(DueMonth {
+                month: m,
+                ut,
+                external,
+            });
+            m = next_month(m);
+        }
+    }
+    let mut due_years: Vec<DueYear> = Vec::new();
+    for m in &due_months {
+        match due_years.last_mut() {
+            Some(y) if y.year == m.month.year() => {
+                y.ut += m.ut;
+                y.external += m.external;
+            }
+            _ => due_years.push(DueYear {
+                year: m.month.year(),
+                ut: m.ut,
+                external: m.external,
+            }),
+        }
+    }
+    let mut lives: Vec<LifeBar> = tanks
+        .iter()
+        .map(|t| LifeBar {
+            tank_id: t.tank_id.clone(),
+            folder: t.folder.clone(),
+            governing_course: t.governing_course,
+            life: t.remaining_life,
+            status: t.status,
+        })
+        .collect();
+    lives.sort_by(|a, b| {
+        let key = |l: &LifeBar| l.life.map_or((3, 0.0), |r| r.sort_key());
+        let (ka, kb) = (key(a), key(b));
+        ka.0.cmp(&kb.0)
+            .then_with(|| ka.1.total_cmp(&kb.1))
+            .then_with(|| a.tank_id.cmp(&b.tank_id))
+            .then_with(|| a.folder.cmp(&b.folder))
+    });
+    FleetSeries {
+        due_months,
+        due_years,
+        lives,
+        monitor_years: MONITOR_REMAINING_LIFE_YEARS,
     }
 }
 
@@ -91,6 +197,7 @@ mod tests {
     use chrono::NaiveDate;
 
     use super::*;
+    use crate::calc::life::RemainingLife;
     use crate::calc::units::UnitSystem;
 
     fn line(id: &str, folder: &str, due: Option<(i32, u32, u32)>) -> FleetEntry {
@@ -113,8 +220,10 @@ mod tests {
             operating_fill_height: Length(10.0),
             shell_height: Length(12.0),
             fill_restricted: false,
+            fill_restricted_next: false,
             below_minimum: Vec::new(),
             warnings: 0,
+            report: None,
         }))
     }
 
@@ -147,6 +256,88 @@ mod tests {
         assert_eq!(a, b);
         let folders: Vec<&str> = a.iter().map(FleetEntry::folder).collect();
         assert_eq!(folders, ["a", "a", "d", "b", "e", "c", "z"]);
+    }
+
+    fn tank(
+        id: &str,
+        ut: Option<(i32, u32, u32)>,
+        ext: Option<(i32, u32, u32)>,
+        life: Option<RemainingLife>,
+    ) -> FleetEntry {
+        let d =
+            |x: Option<(i32, u32, u32)>| x.and_then(|(y, m, d)| NaiveDate::from_ymd_opt(y, m, d));
+        let mut e = line(id, id, None);
+        if let FleetEntry::Tank(t) = &mut e {
+            t.next_ut_inspection = d(ut);
+            t.next_external_inspection = d(ext);
+            t.remaining_life = life;
+        }
+        e
+    }
+
+    /// Counted by hand: A (UT 2027-03-31, external 2026-12-15), B (UT 2027-03-02,
+    /// external 2027-01-10), C (external 2026-12-01, no UT date), a failed folder (not
+    /// counted). Months December 2026 to March 2027: Dec 0 UT + 2 external (A, C),
+    /// Jan 0 + 1 (B), Feb 0 + 0, Mar 2 + 0 (A, B); years 2026: 0 + 2, 2027: 2 + 1.
+    #[test]
+    fn due_dates_counted_by_month_and_year() {
+        let fleet = Fleet {
+            root: "r".into(),
+            entries: vec![
+                tank("A", Some((2027, 3, 31)), Some((2026, 12, 15)), None),
+                tank("B", Some((2027, 3, 2)), Some((2027, 1, 10)), None),
+                tank("C", None, Some((2026, 12, 1)), None),
+                failed("z"),
+            ],
+        };
+        let s = fleet_series(&fleet);
+        let m = |y, mo| NaiveDate::from_ymd_opt(y, mo, 1).expect("date");
+        let got: Vec<(NaiveDate, usize, usize)> = s
+            .due_months
+            .iter()
+            .map(|d| (d.month, d.ut, d.external))
+            .collect();
+        assert_eq!(
+            got,
+            [
+                (m(2026, 12), 0, 2),
+                (m(2027, 1), 0, 1),
+                (m(2027, 2), 0, 0),
+                (m(2027, 3), 2, 0)
+            ]
+        );
+        let years: Vec<(i32, usize, usize)> = s
+            .due_years
+            .iter()
+            .map(|y| (y.year, y.ut, y.external))
+            .collect();
+        assert_eq!(years, [(2026, 0, 2), (2027, 2, 1)]);
+        // Every due date is counted once.
+        let total: usize = s.due_months.iter().map(|d| d.ut + d.external).sum();
+        assert_eq!(total, 5);
+        assert_eq!(s.monitor_years, 10.0);
+    }
+
+    /// Least remaining life first; no measurable loss after every finite life; no
+    /// rate (or no course with one) last; ties by tank id.
+    #[test]
+    fn lives_sorted_least_first() {
+        let fleet = Fleet {
+            root: "r".into(),
+            entries: vec![
+                tank("N", None, None, Some(RemainingLife::NoMeasurableLoss)),
+                tank("U", None, None, Some(RemainingLife::Unknown)),
+                tank("X", None, None, None),
+                tank("B", None, None, Some(RemainingLife::Years(12.5))),
+                tank("A", None, None, Some(RemainingLife::Years(12.5))),
+                tank("Z", None, None, Some(RemainingLife::Years(0.0))),
+                failed("f"),
+            ],
+        };
+        let s = fleet_series(&fleet);
+        let ids: Vec<&str> = s.lives.iter().map(|l| l.tank_id.as_str()).collect();
+        assert_eq!(ids, ["Z", "A", "B", "N", "U", "X"]);
+        assert!(s.due_months.is_empty() && s.due_years.is_empty());
     }
 
     /// Worst status first: below-minimum, no-readings, monitor, ok.

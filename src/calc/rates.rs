@@ -179,8 +179,30 @@ pub fn regression(history: &[BasisPoint]) -> Option<RegressionCalc> {
 }
 
 /// Quantile `p` of Student's t distribution with `dof` degrees of freedom (statrs).
+///
+/// statrs inverts the distribution function by iteration (tens of thousands of
+/// instructions), and a fleet asks for the same few quantiles for every course of
+/// every tank: each (p, dof) is computed once per thread and remembered (the same
+/// function of the same numbers, so the same bits).
 pub fn student_t_quantile(p: f64, dof: f64) -> Option<f64> {
-    StudentsT::new(0.0, 1.0, dof).ok().map(|d| d.inverse_cdf(p))
+    type Known = Vec<((u64, u64), Option<f64>)>;
+    thread_local! {
+        static KNOWN: std::cell::RefCell<Known> = const { std::cell::RefCell::new(Vec::new()) };
+    }
+    /// Enough for every number of surveys a tank has; beyond it, computed each time.
+    const KEEP: usize = 64;
+    let key = (p.to_bits(), dof.to_bits());
+    KNOWN.with(|known| {
+        if let Some(&(_, q)) = known.borrow().iter().find(|(k, _)| *k == key) {
+            return q;
+        }
+        let q = StudentsT::new(0.0, 1.0, dof).ok().map(|d| d.inverse_cdf(p));
+        let mut known = known.borrow_mut();
+        if known.len() < KEEP {
+            known.push((key, q));
+        }
+        q
+    })
 }
 
 /// Why the chosen rate basis cannot be computed.

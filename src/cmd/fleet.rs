@@ -5,9 +5,13 @@
 //! made, so memory grows with the number of tanks, not with their readings. The
 //! lines are then put in planning order (calc::fleet), which does not depend on the
 //! order the workers finished in: the output is the same on every run.
+//!
+//! With `--out`, each worker also writes its tank's report folder (the files of
+//! `assess --out`) before dropping the tank, so memory stays that of one report per
+//! worker; the fleet page is written last, from the ordered lines.
 
-use std::io::IsTerminal;
-use std::path::Path;
+use std::io::{IsTerminal, Write as _};
+use std::path::{Path, PathBuf};
 
 use chrono::NaiveDate;
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
@@ -15,25 +19,71 @@ use rayon::prelude::*;
 
 use super::{Global, assess_tank, display, today};
 use crate::calc::assess::AssessOptions;
-use crate::calc::fleet::{fleet_tank, order_fleet};
+use crate::calc::fleet::{fleet_series, fleet_tank, order_fleet};
+use crate::calc::series::report_series;
+use crate::calc::units::UnitSystem;
 use crate::cli::{FleetArgs, Format};
 use crate::input::fleet::find_tank_dirs;
-use crate::input::tank_dir::load_tank_file;
+use crate::input::tank_dir::{SCAN_DIR, SURVEY_DIR, load_tank_dir, load_tank_file};
 use crate::model::fleet::{Fleet, FleetEntry};
+use crate::model::result::Assessment;
 use crate::report::fleet::{render_csv, render_json, render_text};
+use crate::report::fleet_out::{
+    FleetOutError, default_folder, report_names, resolved, write_fleet_page,
+};
+use crate::report::folder::{ReportContext, report_files, write_folder};
+use crate::report::view::View;
 use crate::report::write;
 use crate::{Error, Outcome};
+
+/// Where a tank's report goes (`--out`): the fleet report folder and the tank's
+/// folder name in it.
+#[derive(Debug, Clone, Copy)]
+struct ReportTo<'a> {
+    out: &'a Path,
+    name: &'a str,
+    units: Option<UnitSystem>,
+}
 
 /// Runs the command.
 pub fn run(args: &FleetArgs, g: Global) -> Result<Outcome, Error> {
     let today = today();
     let found = find_tank_dirs(&args.dir)?;
+    let out: Option<PathBuf> = args
+        .out
+        .as_ref()
+        .map(|o| o.clone().unwrap_or_else(default_folder));
+    // With --out, every tank's report folder is named before any is written: the names
+    // depend on all the tank ids (two tanks may share one), never on which worker
+    // finishes first. The tank files are read for their ids (again by each worker:
+    // a tank file is read in microseconds, a report drawn in tens of milliseconds).
+    let names: Vec<Option<String>> = match &out {
+        Some(dir) => {
+            refuse_inputs(dir, &found.tanks)?;
+            let ids: Vec<Option<String>> = found
+                .tanks
+                .par_iter()
+                .map(|d| load_tank_file(d).ok().map(|t| t.id))
+                .collect();
+            report_names(&ids.iter().map(Option::as_deref).collect::<Vec<_>>())
+        }
+        None => vec![None; found.tanks.len()],
+    };
     let bar = progress_bar(found.tanks.len() as u64, g.quiet);
     let mut entries: Vec<FleetEntry> = found
         .tanks
         .par_iter()
-        .map(|dir| {
-            let entry = assess_entry(dir, today);
+        .zip(names.par_iter())
+        .map(|(dir, name)| {
+            let report = out
+                .as_deref()
+                .zip(name.as_deref())
+                .map(|(out, name)| ReportTo {
+                    out,
+                    name,
+                    units: g.units,
+                });
+            let entry = assess_entry(dir, today, report);
             bar.inc(1);
             entry
         })
@@ -59,12 +109,36 @@ pub fn run(args: &FleetArgs, g: Global) -> Result<Outcome, Error> {
             eprintln!("error: {message}");
         }
     }
-    let out = match g.format {
+    let page = match &out {
+        Some(dir) => {
+            let series = fleet_series(&fleet);
+            let files = write_fleet_page(dir, &fleet, &series, g.units)?;
+            Some((dir, files))
+        }
+        None => None,
+    };
+    let text = match g.format {
         Format::Text => render_text(&fleet, g.units, g.quiet),
         Format::Json => render_json(&fleet, g.units),
         Format::Csv => render_csv(&fleet, g.units).map_err(Error::Render)?,
     };
-    write::print(&out, g.color).map_err(Error::Output)?;
+    write::print(&text, g.color).map_err(Error::Output)?;
+    if let Some((dir, files)) = page {
+        let reports = fleet
+            .entries
+            .iter()
+            .filter(|e| matches!(e, FleetEntry::Tank(t) if t.report.is_some()))
+            .count();
+        let mut err = std::io::stderr().lock();
+        writeln!(
+            err,
+            "report: {} (the fleet page and {} PNG charts; {reports} tank report{} beside it)",
+            display(&dir.join("index.html")),
+            files - 1,
+            if reports == 1 { "" } else { "s" }
+        )
+        .map_err(Error::Output)?;
+    }
     if fleet.failed() > 0 {
         Ok(Outcome::InputErrors)
     } else {
@@ -72,8 +146,48 @@ pub fn run(args: &FleetArgs, g: Global) -> Result<Outcome, Error> {
     }
 }
 
-/// One tank folder: its fleet line, or its error.
-fn assess_entry(dir: &Path, today: NaiveDate) -> FleetEntry {
+/// Refuses a fleet report folder inside a tank's surveys/ or scans/ folder (the
+/// files written there would be read, or reported as not read, at the next run).
+fn refuse_inputs(out: &Path, tanks: &[PathBuf]) -> Result<(), FleetOutError> {
+    let target = resolved(out);
+    for dir in tanks {
+        for sub in [SURVEY_DIR, SCAN_DIR] {
+            let inputs = dir.join(sub);
+            if target.starts_with(resolved(&inputs)) {
+                return Err(FleetOutError::IntoInputs {
+                    path: display(out),
+                    inputs: display(&inputs),
+                });
+            }
+        }
+    }
+    Ok(())
+}
+
+/// Writes a tank's report folder, the same files as `assess TANK --out`: the folder
+/// is read once more keeping every reading (for the charts), the report rendered and
+/// written, and all of it dropped on return.
+fn write_tank_report(
+    dir: &Path,
+    a: &Assessment,
+    today: NaiveDate,
+    to: ReportTo,
+) -> Result<(), Error> {
+    let folder = load_tank_dir(dir, today)?;
+    let series = report_series(a, &folder.readings);
+    let v = View::new(a.tank.units, to.units);
+    let ctx = ReportContext {
+        files: &folder.files,
+        stamp: None,
+    };
+    let files = report_files(a, &series, &v, ctx)?;
+    write_folder(&to.out.join(to.name), &dir.join(SURVEY_DIR), &files)?;
+    Ok(())
+}
+
+/// One tank folder: its fleet line (and, with `report`, its report folder), or its
+/// error.
+fn assess_entry(dir: &Path, today: NaiveDate, report: Option<ReportTo>) -> FleetEntry {
     let folder = display(dir);
     let tank = match load_tank_file(dir) {
         Ok(t) => t,
@@ -85,19 +199,34 @@ fn assess_entry(dir: &Path, today: NaiveDate) -> FleetEntry {
             };
         }
     };
-    // The fleet line shows no point; a report of the tank (`--out`) would need them.
+    // The fleet line shows no point; a report of the tank (`--out`) needs them (every
+    // other value is the same either way).
     let options = AssessOptions {
-        skip_points: true,
+        skip_points: report.is_none(),
         ..AssessOptions::default()
     };
-    match assess_tank(dir, &tank, today, options) {
-        Ok(a) => FleetEntry::Tank(Box::new(fleet_tank(folder, &a))),
-        Err(e) => FleetEntry::Failed {
-            folder,
-            tank_id: Some(tank.id),
-            message: e.to_string(),
-        },
+    let a = match assess_tank(dir, &tank, today, options) {
+        Ok(a) => a,
+        Err(e) => {
+            return FleetEntry::Failed {
+                folder,
+                tank_id: Some(tank.id),
+                message: e.to_string(),
+            };
+        }
+    };
+    let mut line = fleet_tank(folder, &a);
+    if let Some(to) = report {
+        if let Err(e) = write_tank_report(dir, &a, today, to) {
+            return FleetEntry::Failed {
+                folder: line.folder,
+                tank_id: Some(tank.id),
+                message: e.to_string(),
+            };
+        }
+        line.report = Some(to.name.to_string());
     }
+    FleetEntry::Tank(Box::new(line))
 }
 
 /// A progress bar on standard error when it is a terminal (never when piped or with

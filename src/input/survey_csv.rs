@@ -176,29 +176,36 @@ const POW10: [f64; 23] = [
 /// k <= 22) is one correctly rounded IEEE division, which is the fast path of
 /// Clinger's algorithm that Rust's own parser takes for such text: the same bits
 /// (checked against `str::parse` in the tests below). None for any other text.
+#[inline(always)]
 fn plain_decimal(b: &[u8]) -> Option<f64> {
     let (negative, digits) = match b.split_first() {
         Some((b'-', rest)) => (true, rest),
         _ => (false, b),
     };
+    // At most 15 digits and one point: anything longer is left to the general parser
+    // (and the mantissa below cannot overflow: at most 16 digits are ever taken).
+    if digits.len() > 16 {
+        return None;
+    }
     let mut mantissa: u64 = 0;
-    let mut count = 0usize;
     let mut fraction: Option<usize> = None;
     for (i, &c) in digits.iter().enumerate() {
-        match c {
-            b'0'..=b'9' if count < 15 => {
-                mantissa = mantissa * 10 + u64::from(c - b'0');
-                count += 1;
-            }
-            b'.' if fraction.is_none() => fraction = Some(i),
-            _ => return None,
+        let d = c.wrapping_sub(b'0');
+        if d < 10 {
+            mantissa = mantissa * 10 + u64::from(d);
+        } else if c == b'.' && fraction.is_none() {
+            fraction = Some(i);
+        } else {
+            return None;
         }
     }
-    if count == 0 {
+    let count = digits.len() - usize::from(fraction.is_some());
+    if count == 0 || count > 15 {
         return None;
     }
     let k = fraction.map_or(0, |i| digits.len() - i - 1);
-    let v = mantissa as f64 / POW10[k];
+    // (mantissa < 10^15 < 2^53: exact as i64 and as f64.)
+    let v = mantissa as i64 as f64 / POW10[k];
     Some(if negative { -v } else { v })
 }
 
@@ -347,8 +354,49 @@ impl<R: Read> Read for Utf8Guard<R> {
 
 /// A field of a record without surrounding ASCII white space (the csv crate's
 /// `Trim::All` does the same, but copies every record to do it).
+#[inline]
 fn field(record: &csv::ByteRecord, i: usize) -> &[u8] {
     record.get(i).unwrap_or(&[]).trim_ascii()
+}
+
+/// A field without surrounding ASCII white space: the first and last bytes are looked
+/// at, and only a field that has some is trimmed.
+#[inline]
+fn trimmed(f: &[u8]) -> &[u8] {
+    match (f.first(), f.last()) {
+        (Some(a), Some(z)) if !a.is_ascii_whitespace() && !z.is_ascii_whitespace() => f,
+        _ => f.trim_ascii(),
+    }
+}
+
+/// How many fields of a row [`Row`] splits at once (a file uses at most seven known
+/// columns, so only a file with unnamed columns among them has fields past these).
+const ROW_FIELDS: usize = 8;
+
+/// The fields of one record, split and trimmed in one pass (as [`field`] would give
+/// them one by one).
+struct Row<'r> {
+    record: &'r csv::ByteRecord,
+    fields: [&'r [u8]; ROW_FIELDS],
+}
+
+impl<'r> Row<'r> {
+    #[inline]
+    fn new(record: &'r csv::ByteRecord) -> Self {
+        let mut fields: [&[u8]; ROW_FIELDS] = [&[]; ROW_FIELDS];
+        for (slot, f) in fields.iter_mut().zip(record.iter()) {
+            *slot = trimmed(f);
+        }
+        Row { record, fields }
+    }
+    /// Field `i`, trimmed; empty when the record has no such field.
+    #[inline(always)]
+    fn get(&self, i: usize) -> &'r [u8] {
+        match self.fields.get(i) {
+            Some(f) => f,
+            None => field(self.record, i),
+        }
+    }
 }
 
 /// The input of a reused csv reader: replaced between files.
@@ -469,7 +517,9 @@ fn read_rows(
         })?;
         // A row of empty fields (a blank line, or ",,," from a spreadsheet) holds no
         // reading: skipped.
-        if !more || record.iter().any(|f| !f.trim_ascii().is_empty()) {
+        // (Every field empty after trimming <=> every byte of the record is white
+        // space: one pass over the record's bytes.)
+        if !more || !record.as_slice().iter().all(u8::is_ascii_whitespace) {
             return Ok::<bool, InputError>(more);
         }
     };
@@ -594,9 +644,49 @@ impl ThinCheck {
     }
 }
 
+/// True when `bytes` holds a byte below 0x0E (tab, line feed, carriage return and
+/// the control characters before them), looked at eight bytes at a time: for a word x,
+/// (x - 0x0E0E..) & !x & 0x8080.. is non-zero exactly when a byte of x is below 0x0E
+/// ("hasless(x, n)", S. E. Anderson, Bit Twiddling Hacks, for n <= 128).
+fn has_control_byte(bytes: &[u8]) -> bool {
+    const LOW: u64 = u64::from_ne_bytes([0x0E; 8]);
+    const HIGH: u64 = u64::from_ne_bytes([0x80; 8]);
+    let test = |x: &[u8; 8]| {
+        let x = u64::from_ne_bytes(*x);
+        x.wrapping_sub(LOW) & !x & HIGH
+    };
+    let Some(last) = bytes.last_chunk::<8>() else {
+        return bytes.iter().any(|&b| b < 0x0E);
+    };
+    // Whole words, then the last eight bytes (overlapping the words when the length is
+    // not a multiple of eight).
+    let (words, _) = bytes.as_chunks::<8>();
+    words.iter().fold(test(last), |hit, w| hit | test(w)) != 0
+}
+
 /// Refuses a record with a line break inside a value: in a survey file that is a quote
 /// left open, and the rows it swallowed would be lost without a word.
+#[inline]
 fn single_lines(
+    path: &str,
+    line: u64,
+    record: &csv::ByteRecord,
+    names: Option<&[String]>,
+) -> Result<(), InputError> {
+    // Nearly every record has no control character at all, so no line break: one
+    // pass over its bytes (the fields one after the other, eight at a time) settles
+    // it; only a record with one is looked at field by field.
+    if has_control_byte(record.as_slice()) {
+        line_breaks(path, line, record, names)
+    } else {
+        Ok(())
+    }
+}
+
+/// [`single_lines`] field by field.
+#[cold]
+#[inline(never)]
+fn line_breaks(
     path: &str,
     line: u64,
     record: &csv::ByteRecord,
@@ -765,7 +855,9 @@ struct RowParser<'a> {
     cols: &'a Columns,
     delimiter: u8,
     /// The last date text and its value: survey files repeat one date many times.
-    date_cache: Option<(Vec<u8>, NaiveDate)>,
+    /// (Every valid date text is ten bytes, YYYY-MM-DD: kept as an array, compared
+    /// without a call.)
+    date_cache: Option<([u8; 10], NaiveDate)>,
 }
 
 impl RowParser<'_> {
@@ -773,13 +865,8 @@ impl RowParser<'_> {
         Location::line(self.path, line)
     }
 
-    fn text<'r>(
-        &self,
-        record: &'r csv::ByteRecord,
-        i: usize,
-        line: u64,
-    ) -> Result<&'r str, InputError> {
-        std::str::from_utf8(field(record, i)).map_err(|_| {
+    fn text<'r>(&self, row: &Row<'r>, i: usize, line: u64) -> Result<&'r str, InputError> {
+        std::str::from_utf8(row.get(i)).map_err(|_| {
             InputError::new(
                 self.at(line),
                 InputErrorKind::NotUtf8 {
@@ -833,14 +920,15 @@ impl RowParser<'_> {
 
     /// A finite number; decimal comma accepted when the delimiter is `;` or tab.
     /// `expected` describes the value for messages (made only when one is needed).
+    #[inline(always)]
     fn number(
         &self,
-        record: &csv::ByteRecord,
+        row: &Row<'_>,
         i: usize,
         line: u64,
         expected: &dyn Fn() -> String,
     ) -> Result<Option<f64>, InputError> {
-        let raw = field(record, i);
+        let raw = row.get(i);
         if raw.is_empty() {
             return Ok(None);
         }
@@ -849,8 +937,21 @@ impl RowParser<'_> {
         if let Some(v) = plain_decimal(raw) {
             return Ok(Some(v));
         }
+        self.general_number(row, i, line, expected)
+    }
+
+    /// [`Self::number`] for text that is not a plain decimal.
+    #[cold]
+    #[inline(never)]
+    fn general_number(
+        &self,
+        row: &Row<'_>,
+        i: usize,
+        line: u64,
+        expected: &dyn Fn() -> String,
+    ) -> Result<Option<f64>, InputError> {
         let expected = expected();
-        let s = self.text(record, i, line)?;
+        let s = self.text(row, i, line)?;
         match read_number(s, self.delimiter) {
             NumberText::Empty => Ok(None),
             NumberText::Value(v) => Ok(Some(v)),
@@ -869,21 +970,22 @@ impl RowParser<'_> {
         record: &'r csv::ByteRecord,
         line: u64,
         file_index: u32,
-        points: &mut PointNames,
+        points: &'r mut PointNames,
     ) -> Result<ReadingRef<'r>, InputError> {
+        let row = &Row::new(record);
         let ctx = self.ctx;
         let cols = self.cols;
-        let date = self.date(record, line)?;
+        let date = self.date(row, line)?;
 
         // course
         let ci = cols.course;
         // One or two digits without a leading zero read at once; anything else through
         // `str::parse` and its messages.
-        let course: u32 = match field(record, ci) {
+        let course: u32 = match row.get(ci) {
             [d @ b'1'..=b'9'] => u32::from(d - b'0'),
             [a @ b'1'..=b'9', b @ b'0'..=b'9'] => u32::from(a - b'0') * 10 + u32::from(b - b'0'),
             _ => {
-                let course_text = self.text(record, ci, line)?;
+                let course_text = self.text(row, ci, line)?;
                 if course_text.is_empty() {
                     return Err(self.empty(line, ci, "a course number (1 = bottom course)".into()));
                 }
@@ -912,22 +1014,24 @@ impl RowParser<'_> {
 
         // thickness
         let (ti, suffix) = cols.thickness;
-        let unit_name = suffix_unit(suffix, ctx.units, true);
+        // (The unit's name is only needed for messages.)
+        let unit_name = || suffix_unit(suffix, ctx.units, true);
         let expected = || {
+            let unit_name = unit_name();
             format!(
                 "a thickness in {unit_name}, e.g. {}",
                 example_thickness(unit_name)
             )
         };
         let raw = self
-            .number(record, ti, line, &expected)?
+            .number(row, ti, line, &expected)?
             .ok_or_else(|| self.empty(line, ti, expected()))?;
         if raw <= 0.0 {
             let expected = expected();
             return Err(self.range(
                 line,
                 ti,
-                format!("{} {unit_name}", number_text(raw)),
+                format!("{} {}", number_text(raw), unit_name()),
                 format!("is not positive, expected {expected}"),
             ));
         }
@@ -938,7 +1042,7 @@ impl RowParser<'_> {
             return Err(self.range(
                 line,
                 ti,
-                format!("{} {unit_name}", number_text(raw)),
+                format!("{} {}", number_text(raw), unit_name()),
                 format!(
                     "is more than 3 x the nominal {} of course {course}: a unit mistake? {}",
                     Shown::thickness(*nominal, units),
@@ -952,39 +1056,51 @@ impl RowParser<'_> {
         }
 
         // optional columns
+        // The point's key. Its text is taken from the interner at the end: an id seen
+        // before is recognised by its bytes, with no UTF-8 check of its own (the text
+        // was checked when the id was first seen).
         let point = match cols.point {
             Some(i) => {
-                let p = self.text(record, i, line)?;
-                if p.chars().count() > MAX_POINT_CHARS {
-                    return Err(self.range(
-                        line,
-                        i,
-                        format!("\"{}\"", echo(p)),
-                        format!(
-                            "is too long for a point id, expected at most {MAX_POINT_CHARS} \
-                             characters (e.g. \"D5-C1-L\")"
-                        ),
-                    ));
+                let raw = row.get(i);
+                match raw.len() {
+                    0 => None,
+                    // (A text of at most that many bytes has at most that many characters.)
+                    n if n <= MAX_POINT_CHARS
+                        && let Ok(key) = points.key_of_bytes(raw) =>
+                    {
+                        Some(key)
+                    }
+                    _ => {
+                        let p = self.text(row, i, line)?;
+                        if p.chars().count() > MAX_POINT_CHARS {
+                            return Err(self.range(
+                                line,
+                                i,
+                                format!("\"{}\"", echo(p)),
+                                format!(
+                                    "is too long for a point id, expected at most \
+                                     {MAX_POINT_CHARS} characters (e.g. \"D5-C1-L\")"
+                                ),
+                            ));
+                        }
+                        Some(points.key(p))
+                    }
                 }
-                Some(p).filter(|s| !s.is_empty()).map(|id| PointRef {
-                    key: points.key(id),
-                    id,
-                })
             }
             None => None,
         };
         let elevation = match cols.elevation {
             Some((i, suffix)) => {
-                let unit_name = suffix_unit(suffix, ctx.units, false);
-                let expected = || format!("a height above the tank bottom in {unit_name}");
-                match self.number(record, i, line, &expected)? {
+                let unit_name = || suffix_unit(suffix, ctx.units, false);
+                let expected = || format!("a height above the tank bottom in {}", unit_name());
+                match self.number(row, i, line, &expected)? {
                     None => None,
                     Some(v) if v < 0.0 => {
                         let expected = expected();
                         return Err(self.range(
                             line,
                             i,
-                            format!("{} {unit_name}", number_text(v)),
+                            format!("{} {}", number_text(v), unit_name()),
                             format!("is negative, expected {expected}"),
                         ));
                     }
@@ -997,7 +1113,7 @@ impl RowParser<'_> {
                             return Err(self.range(
                                 line,
                                 i,
-                                format!("{} {unit_name}", number_text(v)),
+                                format!("{} {}", number_text(v), unit_name()),
                                 format!(
                                     "is above the shell height {} {lu}: a unit mistake? {}",
                                     number_text(shell.0),
@@ -1021,31 +1137,36 @@ impl RowParser<'_> {
             None => None,
         };
         let azimuth = match cols.azimuth {
-            Some(i) => {
-                match self.number(record, i, line, &|| "degrees from 0 to 360".to_string())? {
-                    None => None,
-                    Some(a) if (0.0..=360.0).contains(&a) => Some(a),
-                    Some(a) => {
-                        return Err(self.range(
-                            line,
-                            i,
-                            number_text(a),
-                            "is outside 0 to 360 degrees".into(),
-                        ));
-                    }
+            Some(i) => match self.number(row, i, line, &|| "degrees from 0 to 360".to_string())? {
+                None => None,
+                Some(a) if (0.0..=360.0).contains(&a) => Some(a),
+                Some(a) => {
+                    return Err(self.range(
+                        line,
+                        i,
+                        number_text(a),
+                        "is outside 0 to 360 degrees".into(),
+                    ));
                 }
-            }
+            },
             None => None,
         };
         let note = match cols.note {
-            Some(i) if !field(record, i).is_empty() => Some(self.text(record, i, line)?),
+            Some(i) if !row.get(i).is_empty() => Some(self.text(row, i, line)?),
             _ => None,
         };
+        let points: &'r PointNames = points;
         Ok(ReadingRef {
             date,
             course,
             thickness,
-            point,
+            // (A key just given out always has its text.)
+            point: point.and_then(|key| {
+                Some(PointRef {
+                    key,
+                    id: points.name(key)?,
+                })
+            }),
             elevation,
             azimuth,
             note,
@@ -1056,15 +1177,16 @@ impl RowParser<'_> {
         })
     }
 
-    fn date(&mut self, record: &csv::ByteRecord, line: u64) -> Result<NaiveDate, InputError> {
+    fn date(&mut self, row: &Row<'_>, line: u64) -> Result<NaiveDate, InputError> {
         let i = self.cols.date;
-        let raw = field(record, i);
+        let raw = row.get(i);
         if let Some((text, date)) = &self.date_cache
-            && text.as_slice() == raw
+            && raw.len() == 10
+            && raw.first_chunk::<10>() == Some(text)
         {
             return Ok(*date);
         }
-        let s = self.text(record, i, line)?;
+        let s = self.text(row, i, line)?;
         if s.is_empty() {
             return Err(self.empty(line, i, "a date as YYYY-MM-DD".into()));
         }
@@ -1128,7 +1250,9 @@ impl RowParser<'_> {
                 ),
             ));
         }
-        self.date_cache = Some((raw.to_vec(), date));
+        if let Ok(text) = <[u8; 10]>::try_from(raw) {
+            self.date_cache = Some((text, date));
+        }
         Ok(date)
     }
 }
@@ -1227,7 +1351,42 @@ mod tests {
         }
     }
 
+    /// The word-at-a-time test agrees with the plain definition, a byte below 0x0E
+    /// anywhere (reference: the byte loop itself).
+    fn control_agrees(bytes: &[u8]) {
+        assert_eq!(
+            super::has_control_byte(bytes),
+            bytes.iter().any(|&b| b < 0x0E),
+            "{bytes:?}"
+        );
+    }
+
+    #[test]
+    fn control_bytes_on_edge_cases() {
+        for b in [
+            &b""[..],
+            b"\n",
+            b"\r",
+            b"\t",
+            b"2024-01-01D1-C1-L12.40",
+            b"2024-01-01D1-C1-L12.4\r",
+            b"\x0D\x0E\x0F\x80\xFF\x8D\x8E\x00\x7F",
+            b"\x8D\x8D\x8D\x8D\x8D\x8D\x8D\x8D",
+            b"\xFF\xFF\xFF\xFF\xFF\xFF\xFF\x0D",
+            b"\x0E\x0E\x0E\x0E\x0E\x0E\x0E\x0E",
+            b"\x0E\x0E\x0E\x0E\x0E\x0E\x0E\x0D",
+            "Tänk 7, Durchmesser 30 m".as_bytes(),
+        ] {
+            control_agrees(b);
+        }
+    }
+
     proptest! {
+        #[test]
+        fn control_bytes_word_at_a_time(bytes in proptest::collection::vec(any::<u8>(), 0..40)) {
+            control_agrees(&bytes);
+        }
+
         #[test]
         fn fast_numbers_are_std_numbers(text in "[-+]?[0-9]{0,20}(\\.[0-9]{0,20})?([eE][-+]?[0-9]{1,3})?") {
             agrees(&text);

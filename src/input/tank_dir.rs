@@ -4,21 +4,18 @@
 //! on at once (through [`RepeatFilter`], which settles repeated points); nothing keeps
 //! the rows unless the receiving [`ReadingSink`] does.
 
-use std::collections::hash_map::Entry;
 use std::path::{Path, PathBuf};
-
-use chrono::NaiveDate;
-use rustc_hash::FxHashMap;
 
 use super::error::{InputError, InputErrorKind, Location};
 use super::scan_csv::read_scan;
 use super::survey_csv::{SurveyContext, SurveyFileInfo, read_survey};
 use super::tank_file::parse_tank;
 use crate::calc::units::{Thickness, UnitSystem};
-use crate::model::reading::{Origin, PointKey, PointNames, ReadingRef, ReadingSet, ReadingSink};
+use crate::model::reading::{Origin, PointNames, ReadingRef, ReadingSet, ReadingSink};
 use crate::model::scan::Scan;
 use crate::model::tank::Tank;
 use crate::model::warning::{Shown, Warning};
+use chrono::NaiveDate;
 
 /// Name of the tank file in a tank folder.
 pub const TANK_FILE: &str = "tank.toml";
@@ -59,20 +56,24 @@ fn read_bytes(path: &Path) -> Result<Vec<u8>, InputError> {
 /// Reads and validates `dir/tank.toml`.
 pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
     let shown_dir = dir.display().to_string();
-    if !dir.exists() {
-        return Err(InputError::new(
-            Location::file(shown_dir),
-            InputErrorKind::Io(std::io::Error::new(
-                std::io::ErrorKind::NotFound,
-                "no such file or folder",
-            )),
-        ));
-    }
-    if !dir.is_dir() {
-        return Err(InputError::new(
-            Location::file(shown_dir),
-            InputErrorKind::NotATankFolder,
-        ));
+    // One look at the folder (what `exists` and `is_dir` would each ask for).
+    match std::fs::metadata(dir) {
+        Err(_) => {
+            return Err(InputError::new(
+                Location::file(shown_dir),
+                InputErrorKind::Io(std::io::Error::new(
+                    std::io::ErrorKind::NotFound,
+                    "no such file or folder",
+                )),
+            ));
+        }
+        Ok(m) if !m.is_dir() => {
+            return Err(InputError::new(
+                Location::file(shown_dir),
+                InputErrorKind::NotATankFolder,
+            ));
+        }
+        Ok(_) => {}
     }
     let path = dir.join(TANK_FILE);
     if !path.is_file() {
@@ -168,7 +169,13 @@ fn csv_files(dir: &Path, sub: &str) -> Result<(Vec<PathBuf>, Vec<PathBuf>), Inpu
         if hidden {
             continue;
         }
-        if is_csv && path.is_file() {
+        // The entry's type as the folder listing gives it (no look at the file);
+        // a symbolic link is followed, as `is_file` does.
+        let is_file = match entry.file_type() {
+            Ok(t) if !t.is_symlink() => t.is_file(),
+            _ => path.is_file(),
+        };
+        if is_csv && is_file {
             files.push(path);
         } else {
             skipped.push(path);
@@ -223,7 +230,7 @@ pub fn stream_surveys(
         let info = read_survey(&shown, file, i as u32, &ctx, points, &mut filter)?;
         // The other files likely have as many rows: room for their repeat check at once.
         if i == 0 {
-            filter.first.reserve(info.rows * (paths.len() - 1));
+            filter.entries.reserve(info.rows * (paths.len() - 1));
         }
         infos.push(info);
     }
@@ -266,18 +273,45 @@ struct FirstReading {
     origin: Origin,
 }
 
+/// One (course, point, date) seen, linked to the one seen before it for the same point
+/// key.
+#[derive(Debug, Clone, Copy)]
+struct Seen {
+    date: NaiveDate,
+    first: FirstReading,
+    /// The previous entry of the same point key, or [`NO_ENTRY`].
+    previous: u32,
+}
+
+/// The entries of one point key: the latest date among them and the last one added.
+#[derive(Debug, Clone, Copy)]
+struct PointEntries {
+    latest: NaiveDate,
+    last: u32,
+}
+
+/// No entry.
+const NO_ENTRY: u32 = u32::MAX;
+
 /// Settles repeated points while readings stream past, then hands them on.
 ///
 /// The same point on the same date twice: an error when the values differ (the
 /// inspector must choose), a warning when they are equal (the repeat is counted once
 /// and not handed on). The error is kept until every file has been read, so that an
 /// unreadable row anywhere is reported first, as when the files were read whole.
+///
+/// What is kept: one entry per (course, point, date), chained per point key (keys are
+/// dense, 0, 1, 2, ... within a tank, see `PointNames`). Survey files list each
+/// point once per date and come in date order, so a reading is nearly always later
+/// than every entry of its point and is added at once; otherwise the point's few
+/// entries (one per survey) are searched.
 pub struct RepeatFilter<'s, S> {
     inner: &'s mut S,
     units: UnitSystem,
     /// Files read so far, as displayed (index = `Origin::file`).
     pub files: Vec<String>,
-    first: FxHashMap<(u32, PointKey, NaiveDate), FirstReading>,
+    by_key: Vec<PointEntries>,
+    entries: Vec<Seen>,
     remarks: Vec<Warning>,
     conflict: Option<InputError>,
 }
@@ -289,7 +323,8 @@ impl<'s, S: ReadingSink> RepeatFilter<'s, S> {
             inner,
             units,
             files: Vec::new(),
-            first: FxHashMap::default(),
+            by_key: Vec::new(),
+            entries: Vec::new(),
             remarks: Vec::new(),
             conflict: None,
         }
@@ -319,18 +354,50 @@ impl<S: ReadingSink> ReadingSink for RepeatFilter<'_, S> {
             return;
         };
         // A point id names a location on its course: the same id on another course is
-        // another point.
-        let a = match self.first.entry((r.course, point.key, r.date)) {
-            Entry::Vacant(v) => {
-                v.insert(FirstReading {
+        // another point, so an entry matches on course and date.
+        let slot = point.key.0 as usize;
+        if self.by_key.len() <= slot {
+            self.by_key.resize(
+                slot + 1,
+                PointEntries {
+                    latest: NaiveDate::MIN,
+                    last: NO_ENTRY,
+                },
+            );
+        }
+        let head = self.by_key[slot];
+        let mut found = None;
+        if head.last != NO_ENTRY && r.date <= head.latest {
+            let mut i = head.last;
+            while i != NO_ENTRY {
+                let e = &self.entries[i as usize];
+                if e.date == r.date && e.first.course == r.course {
+                    found = Some(e.first);
+                    break;
+                }
+                i = e.previous;
+            }
+        }
+        let Some(a) = found else {
+            self.by_key[slot] = PointEntries {
+                latest: if head.last == NO_ENTRY {
+                    r.date
+                } else {
+                    head.latest.max(r.date)
+                },
+                last: self.entries.len() as u32,
+            };
+            self.entries.push(Seen {
+                date: r.date,
+                first: FirstReading {
                     thickness: r.thickness,
                     course: r.course,
                     origin: r.origin,
-                });
-                self.inner.accept(r);
-                return;
-            }
-            Entry::Occupied(o) => *o.get(),
+                },
+                previous: head.last,
+            });
+            self.inner.accept(r);
+            return;
         };
         if a.thickness != r.thickness {
             if self.conflict.is_none() {

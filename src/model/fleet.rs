@@ -68,10 +68,16 @@ pub struct FleetTank {
     pub shell_height: Length,
     /// True when the allowable level now is below the operating maximum.
     pub fill_restricted: bool,
+    /// True when the allowable level at the next UT survey is below the operating
+    /// maximum.
+    pub fill_restricted_next: bool,
     /// Courses below t_min.
     pub below_minimum: Vec<u32>,
     /// Number of warnings of the assessment.
     pub warnings: usize,
+    /// The tank's report folder inside the fleet report folder (`fleet --out`), when
+    /// one was written.
+    pub report: Option<String>,
 }
 
 /// One tank folder of the fleet.
@@ -122,4 +128,56 @@ impl Fleet {
     pub fn failed(&self) -> usize {
         self.entries.len() - self.assessed()
     }
+}
+
+/// Inspections falling due in one calendar month.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct DueMonth {
+    /// The first day of the month.
+    pub month: NaiveDate,
+    /// Next UT thickness surveys due that month.
+    pub ut: usize,
+    /// Next external inspections due that month.
+    pub external: usize,
+}
+
+/// Inspections falling due in one calendar year.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct DueYear {
+    /// The year.
+    pub year: i32,
+    /// Next UT thickness surveys due that year.
+    pub ut: usize,
+    /// Next external inspections due that year.
+    pub external: usize,
+}
+
+/// One tank's governing course and its remaining life.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LifeBar {
+    /// Tank id.
+    pub tank_id: String,
+    /// The tank folder.
+    pub folder: String,
+    /// The governing course.
+    pub governing_course: Option<u32>,
+    /// Its remaining life (None: no course has a rate).
+    pub life: Option<RemainingLife>,
+    /// The tank's status.
+    pub status: TankStatus,
+}
+
+/// What the fleet page's charts draw, from the assessed tanks of a [`Fleet`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct FleetSeries {
+    /// Every calendar month from the first month with a due date to the last, in
+    /// order (months with nothing due included, with zero counts).
+    pub due_months: Vec<DueMonth>,
+    /// The same counts per calendar year, over the same span.
+    pub due_years: Vec<DueYear>,
+    /// Tanks by remaining life of their governing course, least first (no measurable
+    /// loss after every finite life, not computed last; ties by tank id, then folder).
+    pub lives: Vec<LifeBar>,
+    /// Remaining life under which a course's status is `monitor`, years.
+    pub monitor_years: f64,
 }

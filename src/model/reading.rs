@@ -151,36 +151,103 @@ impl ReadingSink for Vec<Reading> {
 /// Survey files of one tank usually list the same points in the same order, so the
 /// key after the previous one is tried first (a comparison of a few bytes) before
 /// the hash map is asked.
+///
+/// An id can also be given as raw bytes ([`PointNames::key_of_bytes`]): bytes equal to
+/// an id already known need no UTF-8 check, since that id's text was checked when it
+/// was first seen; only a new id is checked.
+///
+/// Nothing is allocated per id: the ids sit one after the other in one string, and
+/// the map goes from the hash of an id's bytes to the last key with that hash (keys
+/// sharing a hash are chained, and compared byte for byte).
 #[derive(Debug, Clone, Default)]
 pub struct PointNames {
-    keys: rustc_hash::FxHashMap<Box<str>, u32>,
+    /// Hash of an id's bytes -> the last key given an id with that hash.
+    by_hash: rustc_hash::FxHashMap<u64, u32>,
+    /// Per key: the key given before it with the same hash, or [`NO_KEY`].
+    same_hash: Vec<u32>,
     /// Every id, one after the other; `ends[k]` is where id `k` ends.
     text: String,
     ends: Vec<usize>,
     previous: Option<u32>,
 }
 
+/// No key (the end of a hash chain).
+const NO_KEY: u32 = u32::MAX;
+
+/// `a == b`, for the short texts of point ids without a call to the C library: up to
+/// 16 bytes as two (overlapping) eight-byte words.
+#[inline]
+fn same_bytes(a: &[u8], b: &[u8]) -> bool {
+    if a.len() != b.len() {
+        return false;
+    }
+    match (a.first_chunk::<8>(), a.last_chunk::<8>()) {
+        (Some(a0), Some(a1)) if a.len() <= 16 => {
+            b.first_chunk::<8>() == Some(a0) && b.last_chunk::<8>() == Some(a1)
+        }
+        _ => a == b,
+    }
+}
+
+/// The hash of an id's bytes.
+fn id_hash(id: &[u8]) -> u64 {
+    use std::hash::BuildHasher;
+    rustc_hash::FxBuildHasher.hash_one(id)
+}
+
 impl PointNames {
     /// The key of `id`, assigning the next one on first sight.
     pub fn key(&mut self, id: &str) -> PointKey {
+        match self.find(id.as_bytes()) {
+            Some(k) => k,
+            None => self.insert(id),
+        }
+    }
+    /// The key of the id whose bytes are `id`, assigning the next one on first sight;
+    /// an error when `id` is new and not UTF-8 (nothing is assigned then).
+    pub fn key_of_bytes(&mut self, id: &[u8]) -> Result<PointKey, std::str::Utf8Error> {
+        match self.find(id) {
+            Some(k) => Ok(k),
+            None => Ok(self.insert(std::str::from_utf8(id)?)),
+        }
+    }
+    /// The key of a known id: the one after the previous key first, then the map.
+    #[inline]
+    fn find(&mut self, id: &[u8]) -> Option<PointKey> {
         let guess = self.previous.map_or(0, |p| p + 1);
-        let key = match self.name(PointKey(guess)) {
-            Some(name) if name == id => guess,
-            _ => match self.keys.get(id) {
-                Some(&k) => k,
-                None => {
-                    let k = self.ends.len() as u32;
-                    self.text.push_str(id);
-                    self.ends.push(self.text.len());
-                    self.keys.insert(Box::from(id), k);
-                    k
+        let key = match self.bytes(guess) {
+            Some(name) if same_bytes(name, id) => guess,
+            _ => {
+                let mut k = *self.by_hash.get(&id_hash(id))?;
+                while self.bytes(k)? != id {
+                    k = *self.same_hash.get(k as usize)?;
                 }
-            },
+                k
+            }
         };
         self.previous = Some(key);
-        PointKey(key)
+        Some(PointKey(key))
+    }
+    /// A new id's key.
+    fn insert(&mut self, id: &str) -> PointKey {
+        let k = self.ends.len() as u32;
+        self.text.push_str(id);
+        self.ends.push(self.text.len());
+        let before = self.by_hash.insert(id_hash(id.as_bytes()), k);
+        self.same_hash.push(before.unwrap_or(NO_KEY));
+        self.previous = Some(k);
+        PointKey(k)
+    }
+    /// The bytes of id `k`.
+    #[inline]
+    fn bytes(&self, k: u32) -> Option<&[u8]> {
+        let k = k as usize;
+        let end = *self.ends.get(k)?;
+        let start = if k == 0 { 0 } else { self.ends[k - 1] };
+        self.text.as_bytes().get(start..end)
     }
     /// The text of a key given out by this interner.
+    #[inline]
     pub fn name(&self, key: PointKey) -> Option<&str> {
         let k = key.0 as usize;
         let end = *self.ends.get(k)?;
@@ -214,5 +281,46 @@ mod tests {
         assert_eq!(again, [0, 1, 2, 1, 0, 3, 2]);
         assert_eq!(n.name(PointKey(3)), Some("D"));
         assert_eq!(n.len(), 4);
+        // Bytes: a known id by its bytes, a new one checked, a bad one refused and
+        // given no key.
+        assert_eq!(n.key_of_bytes(b"B"), Ok(PointKey(1)));
+        assert_eq!(n.key_of_bytes("É".as_bytes()), Ok(PointKey(4)));
+        assert!(n.key_of_bytes(b"\xC3").is_err());
+        assert_eq!(n.len(), 5);
+        assert_eq!(n.key("F"), PointKey(5));
+    }
+
+    /// The short comparison is `==` (the reference), for every length up to 20 and a
+    /// difference at every position.
+    #[test]
+    fn same_bytes_is_equality() {
+        for n in 0..=20usize {
+            let a: Vec<u8> = (0..n as u8).map(|i| b'A' + i).collect();
+            assert!(same_bytes(&a, &a.clone()));
+            for k in 0..n {
+                let mut b = a.clone();
+                b[k] ^= 1;
+                assert!(!same_bytes(&a, &b), "{n} {k}");
+            }
+            assert!(!same_bytes(&a, &a[..n.saturating_sub(1)]) || n == 0);
+        }
+    }
+
+    /// Many ids, asked for out of order: each keeps its key and its text (the map path,
+    /// not the guess of the next key).
+    #[test]
+    fn many_ids_keep_their_keys() {
+        let mut n = PointNames::default();
+        let ids: Vec<String> = (0..5000)
+            .map(|i| format!("D{}-C{}-{i}", i % 8, i % 6))
+            .collect();
+        for (k, id) in ids.iter().enumerate() {
+            assert_eq!(n.key(id), PointKey(k as u32));
+        }
+        for (k, id) in ids.iter().enumerate().rev().step_by(7) {
+            assert_eq!(n.key_of_bytes(id.as_bytes()), Ok(PointKey(k as u32)));
+            assert_eq!(n.name(PointKey(k as u32)), Some(id.as_str()));
+        }
+        assert_eq!(n.len(), ids.len());
     }
 }

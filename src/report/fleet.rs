@@ -29,18 +29,18 @@ fn status_style(s: Option<TankStatus>) -> Style {
     }
 }
 
-fn view(t: &FleetTank, units: Option<UnitSystem>) -> View {
+pub(crate) fn view(t: &FleetTank, units: Option<UnitSystem>) -> View {
     View::new(t.units, units)
 }
 
-fn length_text(v: &View, h: Option<Length>) -> String {
+pub(crate) fn length_text(v: &View, h: Option<Length>) -> String {
     h.map_or_else(
         || "-".to_string(),
         |h| format!("{:.2} {}", v.len(h), v.to.length_unit()),
     )
 }
 
-fn life_text(l: Option<RemainingLife>) -> String {
+pub(crate) fn life_text(l: Option<RemainingLife>) -> String {
     match l {
         Some(RemainingLife::Years(y)) => format!("{y:.1}"),
         Some(RemainingLife::NoMeasurableLoss) => "no loss".to_string(),
@@ -48,7 +48,7 @@ fn life_text(l: Option<RemainingLife>) -> String {
     }
 }
 
-fn date_text(d: Option<chrono::NaiveDate>) -> String {
+pub(crate) fn date_text(d: Option<chrono::NaiveDate>) -> String {
     d.map_or_else(|| "-".to_string(), |d| d.to_string())
 }
 

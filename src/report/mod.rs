@@ -7,6 +7,8 @@ pub mod check;
 pub mod csv_out;
 pub mod fill;
 pub mod fleet;
+pub mod fleet_html;
+pub mod fleet_out;
 pub mod folder;
 pub mod html;
 pub mod json;

@@ -104,3 +104,82 @@ fn sample_reports_render_in_a_browser() {
         assert!(orange > 500, "{sample}: chart orange pixels {orange}");
     }
 }
+
+/// The fleet page of the sample tanks in a real browser: the screenshot is not blank
+/// and shows both charts' colours (the Okabe-Ito blue and orange of the due-date
+/// bars, the vermillion of a course to monitor: the page's stylesheet uses none of
+/// them); every tank link of the page leads to a file that exists.
+#[test]
+fn fleet_page_renders_in_a_browser() {
+    let Some(bin) = chromium() else {
+        assert!(
+            std::env::var("CI").as_deref() != Ok("true"),
+            "chromium is not installed; under CI=true the browser test must run"
+        );
+        eprintln!("note: chromium not found on PATH: fleet browser test skipped");
+        return;
+    };
+    let tmp = tempfile::tempdir().expect("temp");
+    let out = tmp.path().join("fleet");
+    let run = crate::support::strake([
+        "fleet",
+        "sample-inspections",
+        "--out",
+        out.to_str().expect("utf-8"),
+    ]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let html = std::fs::read_to_string(out.join("index.html")).expect("page");
+    for id in ["chart-due", "chart-life"] {
+        assert!(html.contains(&format!("<svg id=\"{id}\"")), "{id}");
+    }
+    for part in html.split("<a href=\"").skip(1) {
+        let href = &part[..part.find('"').expect("end of href")];
+        if let Some(anchor) = href.strip_prefix('#') {
+            assert!(html.contains(&format!("id=\"{anchor}\"")), "{href}");
+        } else {
+            assert!(out.join(href).is_file(), "{href}");
+        }
+    }
+    let shot = tmp.path().join("shot.png");
+    let profile = tmp.path().join("profile");
+    let status = Command::new(&bin)
+        .args([
+            "--headless",
+            "--no-sandbox",
+            "--disable-gpu",
+            "--disable-quic",
+            "--no-first-run",
+            "--disable-background-networking",
+            "--disable-component-update",
+            "--disable-sync",
+            "--hide-scrollbars",
+        ])
+        .arg(format!("--user-data-dir={}", profile.display()))
+        .arg(format!("--screenshot={}", shot.display()))
+        .arg("--window-size=1200,2600")
+        .arg(format!("file://{}", out.join("index.html").display()))
+        .output()
+        .expect("chromium runs");
+    assert!(
+        shot.is_file(),
+        "no screenshot; chromium said: {}",
+        String::from_utf8_lossy(&status.stderr)
+    );
+    let (w, h, rgb) = pixels(&shot);
+    assert_eq!((w, h), (1200, 2600));
+    let total = rgb.len() / 3;
+    let inked = rgb.chunks(3).filter(|p| p.iter().any(|&c| c < 200)).count();
+    assert!(
+        inked * 100 > total,
+        "page looks blank ({inked} of {total} pixels inked)"
+    );
+    let blue = count_near(&rgb, [0, 114, 178], 12);
+    let orange = count_near(&rgb, [230, 159, 0], 12);
+    let vermillion = count_near(&rgb, [213, 94, 0], 12);
+    assert!(blue > 300, "due-date chart blue pixels {blue}");
+    assert!(orange > 300, "due-date chart orange pixels {orange}");
+    assert!(
+        vermillion > 300,
+        "remaining-life chart vermillion pixels {vermillion}"
+    );
+}

@@ -2,6 +2,7 @@
 //! written (bytes and modification times unchanged after every command), a closed
 //! output pipe ends the run quietly, and every row read is either used or reported.
 
+use std::collections::BTreeMap;
 use std::io::Read;
 use std::path::{Path, PathBuf};
 use std::process::Stdio;
@@ -294,4 +295,241 @@ fn every_row_is_used_or_reported() {
             }
         }
     }
+}
+
+/// Every file below `dir` by path relative to it, split into the files under their
+/// final names and the temporary files of the atomic writer (`.<name>.tmp-<pid>`,
+/// report::write::write_atomic), which a killed run may leave behind.
+fn report_tree(dir: &Path) -> (BTreeMap<String, Vec<u8>>, Vec<String>) {
+    let mut files = BTreeMap::new();
+    let mut temporary = Vec::new();
+    if !dir.exists() {
+        return (files, temporary);
+    }
+    for p in files_under(dir) {
+        let rel = p.strip_prefix(dir).expect("under").display().to_string();
+        let name = p.file_name().expect("name").to_string_lossy().into_owned();
+        if name.starts_with('.') && name.contains(".tmp-") {
+            temporary.push(rel);
+        } else if let Ok(bytes) = std::fs::read(&p) {
+            files.insert(rel, bytes);
+        }
+    }
+    (files, temporary)
+}
+
+/// True when a temporary file of the atomic writer exists below `dir` (read without
+/// failing on entries that come and go while the run writes).
+fn temporary_file_below(dir: &Path) -> bool {
+    let mut stack = vec![dir.to_path_buf()];
+    while let Some(d) = stack.pop() {
+        let Ok(entries) = std::fs::read_dir(&d) else {
+            continue;
+        };
+        for e in entries.flatten() {
+            let name = e.file_name().to_string_lossy().into_owned();
+            if name.starts_with('.') && name.contains(".tmp-") {
+                return true;
+            }
+            if e.file_type().is_ok_and(|t| t.is_dir()) {
+                stack.push(e.path());
+            }
+        }
+    }
+    false
+}
+
+/// When a trial kills the run.
+#[derive(Debug, Clone, Copy)]
+enum KillAt {
+    /// This long after the first temporary file of the atomic writer is seen (the run
+    /// is writing a file at that moment).
+    AfterFirstTemporary(Duration),
+    /// This fraction of a whole run's duration after the start.
+    Fraction(f64),
+}
+
+/// Reports are written atomically (formats.md; issue 4, item 4): runs are killed with
+/// SIGKILL at several moments while they write a report over an earlier one, and
+/// afterwards every file under its final name is byte for byte either the earlier
+/// run's version or the new run's, never a part; the only other files are the
+/// writer's hidden temporary files (`.<name>.tmp-<pid>`), which no reader takes for a
+/// report file.
+///
+/// The two versions: the report folders of the same tanks written with `--units usc`
+/// (the earlier run) and with `--units si` (the new run), so that a file of the new
+/// run differs from the earlier one. The kills land just after a temporary file
+/// appears (a write in progress) and at fixed fractions of a run; a kill that comes
+/// after the run has finished is harmless and the check still holds. The test asserts
+/// the property in every trial, and that at least one trial killed a running process.
+#[test]
+fn killed_while_writing_leaves_each_report_file_old_or_new() {
+    use std::os::unix::process::ExitStatusExt;
+    let tmp = tempfile::tempdir().expect("temp dir");
+    // A fleet of four tanks: each worker writes its tank's report files as it finishes,
+    // so a run writes files over most of its duration.
+    let fleet = tmp.path().join("fleet");
+    for (i, name) in ["kestrel-t12", "kestrel-t03", "kestrel-t07"]
+        .iter()
+        .cycle()
+        .take(4)
+        .enumerate()
+    {
+        let to = fleet.join(format!("t{i}"));
+        copy_tree(&sample(name), &to);
+        let toml = std::fs::read_to_string(to.join("tank.toml")).expect("tank.toml");
+        let id_line = toml
+            .lines()
+            .find(|l| l.starts_with("id = "))
+            .expect("id line")
+            .to_string();
+        std::fs::write(
+            to.join("tank.toml"),
+            toml.replace(&id_line, &format!("id = \"T{i}\"")),
+        )
+        .expect("write tank.toml");
+    }
+    let fleet_arg = fleet.to_str().expect("utf-8 path").to_string();
+    let command = |out: &Path, units: &str, args: &[&str]| {
+        let mut c = std::process::Command::cargo_bin("strake").expect("binary built");
+        c.current_dir(root())
+            .env("NO_COLOR", "1")
+            .args(args)
+            .arg("--out")
+            .arg(out)
+            .args(["--units", units])
+            .stdout(Stdio::null())
+            .stderr(Stdio::null());
+        c
+    };
+    let t12 = sample("kestrel-t12");
+    let t12 = t12.to_str().expect("utf-8 path");
+    // Files a report folder holds: as many as the committed sample report of that tank
+    // (tests/it/report.rs keeps those current); a fleet page adds three.
+    let count = |id: &str| {
+        std::fs::read_dir(root().join("reports").join(id))
+            .expect("committed report")
+            .count()
+    };
+    let fleet_files = 3 + ["KR-T12", "KR-T03", "KR-T07", "KR-T12"]
+        .iter()
+        .map(|id| count(id))
+        .sum::<usize>();
+    let jobs: [(&str, Vec<&str>, usize); 2] = [
+        ("fleet", vec!["fleet", &fleet_arg], fleet_files),
+        ("assess", vec!["assess", t12], count("KR-T12")),
+    ];
+    let mut killed_running = 0;
+    let mut mixed = 0;
+    let mut seen_temporary = 0;
+    for (label, args, file_count) in &jobs {
+        let (old_dir, new_dir) = (tmp.path().join("old"), tmp.path().join("new"));
+        let _ = std::fs::remove_dir_all(&old_dir);
+        let _ = std::fs::remove_dir_all(&new_dir);
+        assert!(
+            command(&old_dir, "usc", args)
+                .status()
+                .expect("runs")
+                .success()
+        );
+        let started = std::time::Instant::now();
+        assert!(
+            command(&new_dir, "si", args)
+                .status()
+                .expect("runs")
+                .success()
+        );
+        let whole = started.elapsed();
+        let (old, old_temp) = report_tree(&old_dir);
+        let (new, new_temp) = report_tree(&new_dir);
+        assert_eq!(old.len(), *file_count, "{label}: {:?}", old.keys());
+        assert_eq!(
+            old.keys().collect::<Vec<_>>(),
+            new.keys().collect::<Vec<_>>(),
+            "{label}"
+        );
+        assert!(old_temp.is_empty() && new_temp.is_empty(), "{label}");
+        let differing = old.iter().filter(|(k, v)| new[*k] != **v).count();
+        assert!(
+            differing * 2 > old.len(),
+            "{label}: the two versions differ"
+        );
+        let moments = [
+            KillAt::AfterFirstTemporary(Duration::ZERO),
+            KillAt::AfterFirstTemporary(Duration::from_millis(3)),
+            KillAt::AfterFirstTemporary(Duration::from_millis(30)),
+            KillAt::Fraction(0.3),
+            KillAt::Fraction(0.6),
+            KillAt::Fraction(0.9),
+        ];
+        for (trial, moment) in moments.iter().enumerate() {
+            let out = tmp.path().join(format!("{label}-{trial}"));
+            copy_tree(&old_dir, &out);
+            let mut child = command(&out, "si", args).spawn().expect("spawn strake");
+            let spawned = std::time::Instant::now();
+            match *moment {
+                KillAt::AfterFirstTemporary(delay) => {
+                    // Poll until a temporary file shows, or the run ends.
+                    loop {
+                        if temporary_file_below(&out) {
+                            seen_temporary += 1;
+                            break;
+                        }
+                        if child.try_wait().expect("try_wait").is_some()
+                            || spawned.elapsed() > whole * 20 + Duration::from_secs(30)
+                        {
+                            break;
+                        }
+                    }
+                    std::thread::sleep(delay);
+                }
+                KillAt::Fraction(f) => std::thread::sleep(whole.mul_f64(f)),
+            }
+            let _ = child.kill(); // SIGKILL on Unix; an error only if it had ended.
+            let status = child.wait().expect("wait");
+            if status.signal() == Some(9) {
+                killed_running += 1;
+            }
+            let (now, _temporary) = report_tree(&out);
+            let mut from_new = 0;
+            for (name, bytes) in &old {
+                let got = now
+                    .get(name)
+                    .unwrap_or_else(|| panic!("{label} {moment:?}: {name} is gone"));
+                if got == bytes {
+                    continue;
+                }
+                assert!(
+                    *got == new[name],
+                    "{label} {moment:?}: {name} is neither the old nor the new version \
+                     ({} bytes; old {}, new {})",
+                    got.len(),
+                    bytes.len(),
+                    new[name].len()
+                );
+                from_new += 1;
+            }
+            assert_eq!(
+                now.keys().collect::<Vec<_>>(),
+                old.keys().collect::<Vec<_>>(),
+                "{label} {moment:?}: no other file under a final name"
+            );
+            if from_new > 0 && from_new < differing {
+                mixed += 1;
+            }
+            // A later whole run brings every file to the new version.
+            if trial == 0 {
+                assert!(command(&out, "si", args).status().expect("runs").success());
+                assert_eq!(report_tree(&out).0, new, "{label} {moment:?}: rerun");
+            }
+        }
+    }
+    eprintln!(
+        "note: {killed_running} of 12 runs killed while running, {mixed} left a mix of \
+         old and new files, a temporary file seen in {seen_temporary} of 6 polls"
+    );
+    assert!(killed_running > 0, "no run was killed while it ran");
+    // Files do go through temporary files (35 files a fleet run, each renamed into
+    // place): a writer that wrote the final names directly would never show one.
+    assert!(seen_temporary > 0, "no temporary file was ever seen");
 }

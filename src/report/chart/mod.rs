@@ -15,6 +15,7 @@
 
 pub mod draw;
 pub mod fill;
+pub mod fleet;
 pub mod gumbel;
 pub mod heatmap;
 pub mod history;
@@ -50,6 +51,8 @@ pub enum Place {
     ExtremeValues,
     /// The design-check section: required thickness by both methods.
     Design,
+    /// The fleet page.
+    Fleet,
 }
 
 /// One rendered chart.
