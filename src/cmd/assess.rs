@@ -47,6 +47,7 @@ pub fn run(args: &AssessArgs, g: Global) -> Result<Outcome, Error> {
     if g.format == Format::Csv {
         // CSV rows hold courses only: the warnings go to standard error, one a line.
         write::warnings_to_stderr(&a.warnings).map_err(Error::Output)?;
+        write::caution_to_stderr().map_err(Error::Output)?;
     }
     if let Some((dir, count, charts)) = written {
         let mut err = std::io::stderr().lock();

@@ -19,5 +19,8 @@ pub fn run(args: &FillHeightArgs, g: Global) -> Result<Outcome, Error> {
         Format::Csv => fill::render_csv(&a, &scenarios, years, &v).map_err(Error::Render)?,
     };
     write::print(&out, g.color).map_err(Error::Output)?;
+    if g.format == Format::Csv {
+        write::caution_to_stderr().map_err(Error::Output)?;
+    }
     Ok(Outcome::Done)
 }

@@ -123,6 +123,9 @@ pub fn run(args: &FleetArgs, g: Global) -> Result<Outcome, Error> {
         Format::Csv => render_csv(&fleet, g.units).map_err(Error::Render)?,
     };
     write::print(&text, g.color).map_err(Error::Output)?;
+    if g.format == Format::Csv {
+        write::caution_to_stderr().map_err(Error::Output)?;
+    }
     if let Some((dir, files)) = page {
         let reports = fleet
             .entries

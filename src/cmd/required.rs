@@ -24,6 +24,10 @@ pub fn run(args: &RequiredArgs, g: Global) -> Result<Outcome, Error> {
         Format::Csv => required::render_csv(&shell, &v).map_err(Error::Render)?,
     };
     write::print(&out, g.color).map_err(Error::Output)?;
+    if g.format == Format::Csv {
+        write::warnings_to_stderr(&shell.warnings).map_err(Error::Output)?;
+        write::caution_to_stderr().map_err(Error::Output)?;
+    }
     Ok(Outcome::Done)
 }
 

@@ -38,6 +38,14 @@ pub fn warnings_to_stderr(warnings: &[crate::model::warning::Warning]) -> io::Re
     err.flush()
 }
 
+/// Writes the caution to standard error as one `caution: <text>` line: CSV output has
+/// no place for it, and every output carries it.
+pub fn caution_to_stderr() -> io::Result<()> {
+    let mut err = io::stderr().lock();
+    writeln!(err, "caution: {}", crate::report::caution::CAUTION)?;
+    err.flush()
+}
+
 /// Writes `bytes` to `path` atomically: a reader sees the old file or the new one,
 /// never a part. The temporary file sits beside the target and is renamed over it.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {

@@ -18,9 +18,20 @@ fn assess_snapshots() {
             let run = strake(["assess", &dir, "--format", format]);
             assert_eq!(run.code, 0, "{name} {format}: {}", run.stderr);
             if format == "csv" {
-                // CSV rows hold courses only: the warnings go to standard error.
+                // CSV rows hold courses only: the warnings and the caution go to
+                // standard error, the caution last.
                 assert!(
-                    run.stderr.lines().all(|l| l.starts_with("warning: ")),
+                    run.stderr
+                        .lines()
+                        .all(|l| l.starts_with("warning: ") || l.starts_with("caution: ")),
+                    "{}",
+                    run.stderr
+                );
+                assert!(
+                    run.stderr
+                        .lines()
+                        .last()
+                        .is_some_and(|l| l.starts_with("caution: Screening aid only.")),
                     "{}",
                     run.stderr
                 );
