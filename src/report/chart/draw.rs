@@ -5,10 +5,16 @@
 use std::sync::OnceLock;
 
 use chrono::{Datelike, NaiveDate};
+use plotters::chart::MeshStyle;
 use plotters::coord::Shift;
+use plotters::coord::ranged1d::ValueFormatter;
+use plotters::coord::types::RangedCoordf64;
 use plotters::element::DashedPathElement;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
+
+use crate::calc::units::{Length, Thickness};
+use crate::report::view::View;
 
 /// The embedded font: DejaVu Sans 2.37 (Bitstream Vera licence, see
 /// src/report/fonts/LICENSE-DejaVu.txt).
@@ -215,6 +221,11 @@ impl<DB: DrawingBackend> Pen<'_, DB> {
             (self.s(w).max(1) as u32, self.s(h).max(1) as u32),
         )
     }
+    /// The area of a plot of logical height `h` across the whole chart, below the
+    /// title block.
+    pub fn plot_area(&self, h: f64) -> DrawingArea<DB, Shift> {
+        self.area(SIDE, TITLE_HEIGHT, f64::from(super::WIDTH) - 2.0 * SIDE, h)
+    }
     /// Text at a backend position.
     pub fn text_px(
         &self,
@@ -383,6 +394,9 @@ impl<DB: DrawingBackend> Pen<'_, DB> {
         )
     }
 }
+
+/// Left and right margin of a chart's plot, logical pixels.
+pub const SIDE: f64 = 10.0;
 
 /// Left edge of the legend, logical pixels.
 pub const LEGEND_X: f64 = 18.0;
@@ -594,6 +608,280 @@ pub fn draw_legend<DB: DrawingBackend>(
     Ok(())
 }
 
+/// A chart's logical size: the whole width; the title block, a plot `plot_h` high
+/// and the legend below it.
+pub fn figure_size(plot_h: f64, legend: &[LegendEntry]) -> (u32, u32) {
+    let legend_h = legend_layout(legend, legend_width()).height();
+    (
+        super::WIDTH,
+        (TITLE_HEIGHT + plot_h + legend_h + 8.0).ceil() as u32,
+    )
+}
+
+/// Draws the legend below a plot `plot_h` high (see [`figure_size`]).
+pub fn legend_below<DB: DrawingBackend>(
+    pen: &Pen<DB>,
+    legend: &[LegendEntry],
+    plot_h: f64,
+) -> DrawResult<DB> {
+    draw_legend(pen, legend, LEGEND_X, TITLE_HEIGHT + plot_h, legend_width())
+}
+
+/// The mesh of a chart, styled as every chart's: tick labels and axis titles in the
+/// chart font, grid lines at the labelled ticks only, grey axes, short ticks. The
+/// caller adds what differs (axis titles, label counts and formats, meshes left out)
+/// and draws it.
+pub fn mesh<'a, 'b, X, Y, XT, YT, DB>(
+    pen: &Pen<DB>,
+    chart: &'b mut ChartContext<'a, DB, Cartesian2d<X, Y>>,
+) -> MeshStyle<'a, 'b, X, Y, DB>
+where
+    X: Ranged<ValueType = XT> + ValueFormatter<XT>,
+    Y: Ranged<ValueType = YT> + ValueFormatter<YT>,
+    DB: DrawingBackend,
+{
+    let mut mesh = chart.configure_mesh();
+    mesh.label_style(pen.font(TICK_SIZE))
+        .axis_desc_style(pen.font(AXIS_SIZE))
+        .light_line_style(WHITE)
+        .bold_line_style(GRID)
+        .axis_style(GREY)
+        .set_all_tick_mark_size(pen.s(4.0));
+    mesh
+}
+
+/// Tick labels over a span, with decimals enough that neighbouring ticks differ.
+pub fn tick_format(span: f64) -> impl Fn(&f64) -> String {
+    let decimals = tick_decimals(span);
+    move |t: &f64| format!("{t:.decimals$}")
+}
+
+/// Decimals for tick labels over a span, so neighbouring ticks differ.
+fn tick_decimals(span: f64) -> usize {
+    if !(span.is_finite() && span > 0.0) {
+        return 1;
+    }
+    let step = span / 6.0;
+    (-(step.log10().floor())).clamp(0.0, 4.0) as usize
+}
+
+/// Small multiples: `count` panels `height` high below the title block, one column
+/// for a single panel, else two.
+#[derive(Debug, Clone, Copy)]
+pub struct Panels {
+    /// Number of panels.
+    pub count: usize,
+    /// Logical height of a panel.
+    pub height: f64,
+}
+
+/// Logical height of a panel's caption.
+const CAPTION_H: f64 = 28.0;
+
+impl Panels {
+    fn columns(&self) -> usize {
+        if self.count <= 1 { 1 } else { 2 }
+    }
+    /// Logical height of all the panels (at least one row).
+    pub fn plot_h(&self) -> f64 {
+        self.count.div_ceil(self.columns()).max(1) as f64 * self.height
+    }
+    /// The logical box (x, y, width) of panel `i`, in reading order.
+    pub fn cell(&self, i: usize) -> (f64, f64, f64) {
+        let cols = self.columns();
+        let w = (f64::from(super::WIDTH) - 2.0 * SIDE) / cols as f64;
+        (
+            SIDE + (i % cols) as f64 * w,
+            TITLE_HEIGHT + (i / cols) as f64 * self.height,
+            w,
+        )
+    }
+    /// Draws a panel's caption at the top of its box and returns the area of its plot
+    /// below.
+    pub fn panel<DB: DrawingBackend>(
+        &self,
+        pen: &Pen<DB>,
+        (x, y, w): (f64, f64, f64),
+        caption: &str,
+    ) -> Result<DrawingArea<DB, Shift>, DrawingAreaErrorKind<DB::ErrorType>> {
+        pen.text(
+            caption,
+            x + 12.0,
+            y + 6.0,
+            LABEL_SIZE,
+            INK,
+            (HPos::Left, VPos::Top),
+        )?;
+        Ok(pen.area(x, y + CAPTION_H, w, self.height - CAPTION_H - 6.0))
+    }
+}
+
+/// One course on an elevation axis, display units.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CourseSpan {
+    /// Course number.
+    pub number: u32,
+    /// Elevation of its bottom.
+    pub bottom: f64,
+    /// Its height.
+    pub height: f64,
+}
+
+impl CourseSpan {
+    /// The elevation a fraction `f` of the course's height above its bottom.
+    pub fn at(&self, f: f64) -> f64 {
+        self.bottom + self.height * f
+    }
+    /// The elevation of its top.
+    pub fn top(&self) -> f64 {
+        self.bottom + self.height
+    }
+    /// The elevation of its middle.
+    pub fn mid(&self) -> f64 {
+        self.bottom + self.height / 2.0
+    }
+}
+
+/// The liquid below the level, shaded.
+const LIQUID: RGBColor = RGBColor(232, 243, 251);
+/// The top of each course.
+const BOUNDARY: Stroke = Stroke::new(LIGHT, 1.0, Dash::Solid);
+/// The liquid level line.
+pub const LIQUID_LEVEL: Stroke = Stroke::new(SKY, 2.6, Dash::Long);
+/// Right margin of an elevation plot (course and level labels), logical pixels.
+const ELEVATION_RIGHT: f64 = 190.0;
+
+/// The plot of a thickness-against-elevation chart (shell profile, design check):
+/// thickness across from 0, elevation up from the tank bottom, the courses and a
+/// liquid level.
+pub struct ElevationPlot<DB: DrawingBackend> {
+    plot: DrawingArea<DB, Cartesian2d<RangedCoordf64, RangedCoordf64>>,
+    courses: Vec<CourseSpan>,
+    x1: f64,
+    y1: f64,
+    level: f64,
+}
+
+impl<DB: DrawingBackend> ElevationPlot<DB> {
+    /// Draws the axes (thickness 0 to `x1`, elevation 0 to `y1`, display units) on a
+    /// plot `plot_h` high below the title, the liquid below `level` shaded and the
+    /// top of each course as a thin line. `courses`: each course's number, bottom
+    /// elevation and height, bottom first.
+    pub fn draw(
+        pen: &Pen<DB>,
+        v: &View,
+        courses: impl IntoIterator<Item = (u32, Length, Length)>,
+        (x1, y1): (f64, f64),
+        level: f64,
+        plot_h: f64,
+    ) -> Result<Self, DrawingAreaErrorKind<DB::ErrorType>> {
+        let courses = courses
+            .into_iter()
+            .map(|(number, bottom, height)| CourseSpan {
+                number,
+                bottom: v.len(bottom),
+                height: v.len(height),
+            })
+            .collect();
+        let area = pen.plot_area(plot_h);
+        let mut chart = ChartBuilder::on(&area)
+            .margin_right(pen.s(ELEVATION_RIGHT))
+            .margin_top(pen.s(6.0))
+            .x_label_area_size(pen.s(50.0))
+            .y_label_area_size(pen.s(76.0))
+            .build_cartesian_2d(0.0..x1, 0.0..y1)?;
+        let xfmt = tick_format(x1);
+        let yfmt = tick_format(y1);
+        mesh(pen, &mut chart)
+            .x_desc(format!("Thickness ({})", v.to.thickness_unit()))
+            .y_desc(format!(
+                "Elevation above the tank bottom ({})",
+                v.to.length_unit()
+            ))
+            .x_labels(10)
+            .y_labels(10)
+            .x_label_formatter(&xfmt)
+            .y_label_formatter(&yfmt)
+            .draw()?;
+        let e = ElevationPlot {
+            plot: chart.plotting_area().clone(),
+            courses,
+            x1,
+            y1,
+            level,
+        };
+        pen.rect(e.m(0.0, level), e.m(x1, 0.0), Some(LIQUID), None)?;
+        for c in &e.courses {
+            pen.line(&[e.m(0.0, c.top()), e.m(x1, c.top())], &BOUNDARY)?;
+        }
+        Ok(e)
+    }
+    /// A point (thickness, elevation) in backend pixels.
+    pub fn m(&self, x: f64, y: f64) -> (i32, i32) {
+        self.plot.map_coordinate(&(x, y))
+    }
+    /// The courses, bottom first.
+    pub fn courses(&self) -> &[CourseSpan] {
+        &self.courses
+    }
+    /// A step line through each course at its thickness (one per course, bottom
+    /// first), broken where a course has none: one path per unbroken run.
+    pub fn steps(
+        &self,
+        v: &View,
+        thickness: impl IntoIterator<Item = Option<Thickness>>,
+    ) -> Vec<Vec<(i32, i32)>> {
+        let mut paths: Vec<Vec<(i32, i32)>> = vec![Vec::new()];
+        for (c, t) in self.courses.iter().zip(thickness) {
+            match t {
+                Some(t) => {
+                    let x = v.thk(t);
+                    if let Some(p) = paths.last_mut() {
+                        p.push(self.m(x, c.bottom));
+                        p.push(self.m(x, c.top()));
+                    }
+                }
+                None => paths.push(Vec::new()),
+            }
+        }
+        paths
+    }
+    /// The liquid level line across the plot.
+    pub fn level_line(&self, pen: &Pen<DB>) -> DrawResult<DB> {
+        pen.line(
+            &[self.m(0.0, self.level), self.m(self.x1, self.level)],
+            &LIQUID_LEVEL,
+        )
+    }
+    /// The labels in the right margin: each course at its mid-height, and the liquid
+    /// level as `level_text`.
+    pub fn margin_labels(&self, pen: &Pen<DB>, level_text: String) -> DrawResult<DB> {
+        let x1 = self.x1;
+        let mut labels: Vec<MarginLabel> = self
+            .courses
+            .iter()
+            .map(|c| MarginLabel {
+                text: format!("course {}", c.number),
+                y: self.m(x1, c.mid()).1,
+                color: INK,
+                marker: None,
+            })
+            .collect();
+        labels.push(MarginLabel {
+            text: level_text,
+            y: self.m(x1, self.level).1,
+            color: DEEP_BLUE,
+            marker: None,
+        });
+        draw_margin_labels(
+            pen,
+            &labels,
+            self.m(x1, 0.0).0 + pen.s(12.0),
+            (self.m(x1, self.y1).1, self.m(x1, 0.0).1),
+        )
+    }
+}
+
 /// A label in a chart's right margin.
 #[derive(Debug, Clone, PartialEq)]
 pub struct MarginLabel {
@@ -659,6 +947,14 @@ pub fn spread_labels(wanted: &[i32], gap: i32, lo: i32, hi: i32) -> Vec<i32> {
         out[i] = placed[slot];
     }
     out
+}
+
+/// The least and greatest of `values` (infinite, the wrong way round, when there
+/// are none).
+pub fn extent(values: &[f64]) -> (f64, f64) {
+    let lo = values.iter().copied().fold(f64::INFINITY, f64::min);
+    let hi = values.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+    (lo, hi)
 }
 
 /// Pads a range by a fraction of its span (or by `min_pad` when it is empty).

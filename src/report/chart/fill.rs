@@ -5,19 +5,17 @@
 use plotters::prelude::*;
 
 use super::draw::{
-    AXIS_SIZE, Dash, DrawResult, LEGEND_X, LegendEntry, MarginLabel, Marker, Pen, Shape, Stroke,
-    TICK_SIZE, TITLE_HEIGHT, course_look, draw_legend, draw_margin_labels, legend_layout,
-    legend_width, padded, palette::*, year_of,
+    Dash, DrawResult, LegendEntry, MarginLabel, Marker, Pen, Shape, Stroke, course_look,
+    draw_margin_labels, extent, figure_size, legend_below, mesh, padded, palette::*, tick_format,
+    year_of,
 };
-use super::history::tick_decimals;
-use super::{Figure, Inputs, WIDTH};
+use super::{Figure, Inputs};
 
 /// The chart.
 pub struct FillOutlookChart<'a>(pub Inputs<'a>);
 
 const PLOT_H: f64 = 560.0;
 const RIGHT: f64 = 180.0;
-const SIDE: f64 = 10.0;
 /// A course marker every this many outlook steps.
 const MARK_EVERY: usize = 8;
 
@@ -105,11 +103,7 @@ impl Figure for FillOutlookChart<'_> {
     const TITLE: &'static str = "Allowable liquid level over the coming years";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        (
-            WIDTH,
-            (TITLE_HEIGHT + PLOT_H + legend_h + 8.0).ceil() as u32,
-        )
+        figure_size(PLOT_H, &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -130,39 +124,30 @@ impl Figure for FillOutlookChart<'_> {
         for (_, levels) in self.series() {
             ys.extend(levels.iter().flatten().map(|l| v.len(*l)));
         }
-        let lo = ys.iter().copied().fold(f64::INFINITY, f64::min);
-        let hi = ys.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let (lo, hi) = extent(&ys);
         let (y0, y1) = padded(lo, hi, 0.06, 0.5);
         let y0 = y0.max(0.0);
         let (x0, x1) = (year_of(s.start), year_of(s.horizon));
         let (x0, x1) = (x0 - 0.3, x1 + 0.3);
-        let area = pen.area(SIDE, TITLE_HEIGHT, f64::from(WIDTH) - 2.0 * SIDE, PLOT_H);
+        let area = pen.plot_area(PLOT_H);
         let mut chart = ChartBuilder::on(&area)
             .margin_right(pen.s(RIGHT))
             .margin_top(pen.s(6.0))
             .x_label_area_size(pen.s(50.0))
             .y_label_area_size(pen.s(76.0))
             .build_cartesian_2d(x0..x1, y0..y1)?;
-        let ydec = tick_decimals(y1 - y0);
-        let yfmt = move |t: &f64| format!("{t:.ydec$}");
+        let yfmt = tick_format(y1 - y0);
         let xfmt = |t: &f64| format!("{t:.0}");
-        chart
-            .configure_mesh()
+        mesh(pen, &mut chart)
             .x_desc("Year")
             .y_desc(format!(
                 "Liquid level above the tank bottom ({})",
                 v.to.length_unit()
             ))
-            .label_style(pen.font(TICK_SIZE))
-            .axis_desc_style(pen.font(AXIS_SIZE))
             .x_labels(10)
             .y_labels(10)
             .x_label_formatter(&xfmt)
             .y_label_formatter(&yfmt)
-            .light_line_style(WHITE)
-            .bold_line_style(GRID)
-            .axis_style(GREY)
-            .set_all_tick_mark_size(pen.s(4.0))
             .draw()?;
         let plot = chart.plotting_area();
         let m = |x: f64, y: f64| plot.map_coordinate(&(x, y));
@@ -226,12 +211,6 @@ impl Figure for FillOutlookChart<'_> {
             m(x1, y0).0 + pen.s(10.0),
             (m(x1, y1).1, m(x1, y0).1),
         )?;
-        draw_legend(
-            pen,
-            &self.legend(),
-            LEGEND_X,
-            TITLE_HEIGHT + PLOT_H,
-            legend_width(),
-        )
+        legend_below(pen, &self.legend(), PLOT_H)
     }
 }

@@ -9,11 +9,10 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
 use super::draw::{
-    AXIS_SIZE, Dash, DrawResult, LABEL_SIZE, LEGEND_X, LegendEntry, Marker, Pen, SMALL_SIZE, Shape,
-    Stroke, TICK_SIZE, TITLE_HEIGHT, draw_legend, legend_layout, legend_width, palette::*,
-    register_font, text_width, year_of,
+    Dash, DrawResult, LABEL_SIZE, LegendEntry, Marker, Pen, SMALL_SIZE, Shape, Stroke, TICK_SIZE,
+    figure_size, legend_below, mesh, palette::*, register_font, text_width, year_of,
 };
-use super::{Chart, ChartError, Figure, Place, WIDTH, render};
+use super::{Chart, ChartError, Figure, Place, render};
 use crate::calc::life::RemainingLife;
 use crate::model::fleet::{FleetSeries, LifeBar, TankStatus};
 
@@ -43,7 +42,6 @@ pub fn render_fleet(s: &FleetSeries) -> Result<Vec<Chart>, ChartError> {
     ])
 }
 
-const SIDE: f64 = 10.0;
 const UT_FILL: RGBColor = DEEP_BLUE;
 const EXTERNAL_FILL: RGBColor = ORANGE;
 const UT_KEY: Marker = Marker::new(Shape::Square, UT_FILL, true, 6.0);
@@ -74,11 +72,7 @@ impl Figure for DueChart<'_> {
     const TITLE: &'static str = "Inspections due by month";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        (
-            WIDTH,
-            (TITLE_HEIGHT + DUE_PLOT_H + legend_h + 8.0).ceil() as u32,
-        )
+        figure_size(DUE_PLOT_H, &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -107,32 +101,20 @@ impl Figure for DueChart<'_> {
         let (x0, x1) = (year_of(first.month), year_of(next_month(last.month)));
         let pad = (x1 - x0) * 0.01;
         let (x0, x1) = (x0 - pad, x1 + pad);
-        let area = pen.area(
-            SIDE,
-            TITLE_HEIGHT,
-            f64::from(WIDTH) - 2.0 * SIDE,
-            DUE_PLOT_H,
-        );
+        let area = pen.plot_area(DUE_PLOT_H);
         let mut chart = ChartBuilder::on(&area)
             .margin_right(pen.s(24.0))
             .margin_top(pen.s(6.0))
             .x_label_area_size(pen.s(54.0))
             .y_label_area_size(pen.s(70.0))
             .build_cartesian_2d(x0..x1, 0i32..top)?;
-        chart
-            .configure_mesh()
+        mesh(pen, &mut chart)
             .y_desc("Inspections due")
             .x_desc(if months.len() <= 36 { "Month" } else { "Year" })
-            .label_style(pen.font(TICK_SIZE))
-            .axis_desc_style(pen.font(AXIS_SIZE))
             .x_labels(0)
             .y_labels((top as usize + 1).min(10))
             .y_label_formatter(&|v: &i32| v.to_string())
             .disable_x_mesh()
-            .light_line_style(WHITE)
-            .bold_line_style(GRID)
-            .axis_style(GREY)
-            .set_all_tick_mark_size(pen.s(4.0))
             .draw()?;
         let plot = chart.plotting_area();
         let m = |x: f64, y: i32| plot.map_coordinate(&(x, y));
@@ -194,13 +176,7 @@ impl Figure for DueChart<'_> {
                 )?;
             }
         }
-        draw_legend(
-            pen,
-            &self.legend(),
-            LEGEND_X,
-            TITLE_HEIGHT + DUE_PLOT_H,
-            legend_width(),
-        )
+        legend_below(pen, &self.legend(), DUE_PLOT_H)
     }
 }
 
@@ -301,11 +277,7 @@ impl Figure for LifeChart<'_> {
     const TITLE: &'static str = "Remaining life of each tank's governing course";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        (
-            WIDTH,
-            (TITLE_HEIGHT + self.plot_h() + legend_h + 8.0).ceil() as u32,
-        )
+        figure_size(self.plot_h(), &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -327,7 +299,7 @@ impl Figure for LifeChart<'_> {
         pen.title(Self::TITLE, &subtitle)?;
         let axis = self.axis_years();
         let plot_h = self.plot_h();
-        let area = pen.area(SIDE, TITLE_HEIGHT, f64::from(WIDTH) - 2.0 * SIDE, plot_h);
+        let area = pen.plot_area(plot_h);
         let fill_of = |y: f64| if y < monitor { MONITOR_FILL } else { OK_FILL };
         if self.labelled() {
             let n = lives.len().max(1) as f64;
@@ -337,19 +309,12 @@ impl Figure for LifeChart<'_> {
                 .x_label_area_size(pen.s(50.0))
                 .y_label_area_size(pen.s(LABEL_W))
                 .build_cartesian_2d(0.0..axis, 0.5..n + 0.5)?;
-            chart
-                .configure_mesh()
+            mesh(pen, &mut chart)
                 .x_desc("Remaining life of the governing course (years)")
-                .label_style(pen.font(TICK_SIZE))
-                .axis_desc_style(pen.font(AXIS_SIZE))
                 .x_labels(10)
                 .y_labels(0)
                 .x_label_formatter(&|t: &f64| format!("{t:.0}"))
                 .disable_y_mesh()
-                .light_line_style(WHITE)
-                .bold_line_style(GRID)
-                .axis_style(GREY)
-                .set_all_tick_mark_size(pen.s(4.0))
                 .draw()?;
             let plot = chart.plotting_area();
             let m = |x: f64, y: f64| plot.map_coordinate(&(x, y));
@@ -413,20 +378,13 @@ impl Figure for LifeChart<'_> {
                 .x_label_area_size(pen.s(50.0))
                 .y_label_area_size(pen.s(70.0))
                 .build_cartesian_2d(0.5..n + 0.5, 0.0..axis)?;
-            chart
-                .configure_mesh()
+            mesh(pen, &mut chart)
                 .x_desc("Tanks, least remaining life first (rank)")
                 .y_desc("Remaining life (years)")
-                .label_style(pen.font(TICK_SIZE))
-                .axis_desc_style(pen.font(AXIS_SIZE))
                 .x_labels(10)
                 .y_labels(10)
                 .x_label_formatter(&|t: &f64| format!("{t:.0}"))
                 .y_label_formatter(&|t: &f64| format!("{t:.0}"))
-                .light_line_style(WHITE)
-                .bold_line_style(GRID)
-                .axis_style(GREY)
-                .set_all_tick_mark_size(pen.s(4.0))
                 .draw()?;
             let plot = chart.plotting_area();
             let m = |x: f64, y: f64| plot.map_coordinate(&(x, y));
@@ -472,12 +430,6 @@ impl Figure for LifeChart<'_> {
                 (HPos::Left, VPos::Top),
             )?;
         }
-        draw_legend(
-            pen,
-            &self.legend(),
-            LEGEND_X,
-            TITLE_HEIGHT + plot_h,
-            legend_width(),
-        )
+        legend_below(pen, &self.legend(), plot_h)
     }
 }

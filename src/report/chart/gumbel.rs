@@ -5,15 +5,15 @@
 //! whole course, is marked; and, where it lies near, the loss that would leave t_min.
 //! Every number is the assessment's (calc/extreme.rs); nothing is fitted here.
 
+use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
 use super::draw::{
-    AXIS_SIZE, Dash, DrawResult, LABEL_SIZE, LEGEND_X, LegendEntry, Marker, Pen, SMALL_SIZE, Shape,
-    Stroke, TICK_SIZE, TITLE_HEIGHT, draw_legend, legend_layout, legend_width, padded, palette::*,
+    Dash, DrawResult, LegendEntry, Marker, Panels, Pen, SMALL_SIZE, Shape, Stroke, extent,
+    figure_size, legend_below, mesh, padded, palette::*, tick_format,
 };
-use super::history::tick_decimals;
-use super::{Figure, Inputs, WIDTH};
+use super::{Figure, Inputs};
 use crate::calc::extreme::{ExtremeValue, FitMethod};
 use crate::model::result::CourseResult;
 
@@ -21,8 +21,6 @@ use crate::model::result::CourseResult;
 pub struct GumbelPlot<'a>(pub Inputs<'a>);
 
 const PANEL_H: f64 = 300.0;
-const CAPTION_H: f64 = 28.0;
-const SIDE: f64 = 10.0;
 /// The t_min allowance is drawn when it lies within this multiple of the panel's
 /// greatest loss (further out it would squash the points).
 const ALLOWANCE_REACH: f64 = 1.6;
@@ -47,11 +45,11 @@ impl GumbelPlot<'_> {
     pub fn has_panels(&self) -> bool {
         !self.estimated().is_empty()
     }
-    fn columns(&self) -> usize {
-        if self.estimated().len() <= 1 { 1 } else { 2 }
-    }
-    fn rows(&self) -> usize {
-        self.estimated().len().div_ceil(self.columns()).max(1)
+    fn panels(&self) -> Panels {
+        Panels {
+            count: self.estimated().len(),
+            height: PANEL_H,
+        }
     }
     /// nominal - t_min in display units, when it is drawn in the panel.
     fn allowance(&self, c: &CourseResult, e: &ExtremeValue) -> Option<f64> {
@@ -105,9 +103,7 @@ impl Figure for GumbelPlot<'_> {
     const TITLE: &'static str = "Gumbel plot of each drop's greatest wall loss, by course";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        let h = TITLE_HEIGHT + self.rows() as f64 * PANEL_H + legend_h + 8.0;
-        (WIDTH, h.ceil() as u32)
+        figure_size(self.panels().plot_h(), &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -121,15 +117,19 @@ impl Figure for GumbelPlot<'_> {
                 v.to.thickness_unit()
             ),
         )?;
-        let cols = self.columns();
-        let panel_w = (f64::from(WIDTH) - 2.0 * SIDE) / cols as f64;
+        let panels = self.panels();
         for (i, (c, e)) in self.estimated().into_iter().enumerate() {
-            let x = SIDE + (i % cols) as f64 * panel_w;
-            let y = TITLE_HEIGHT + (i / cols) as f64 * PANEL_H;
-            self.panel(pen, c, e, (x, y, panel_w))?;
+            let caption = format!(
+                "Course {} · {} drops · T {:.0} · r {:.3}",
+                c.number,
+                e.blocks.len(),
+                e.return_period,
+                e.plot_correlation
+            );
+            let area = panels.panel(pen, panels.cell(i), &caption)?;
+            self.panel(pen, c, e, &area)?;
         }
-        let legend_y = TITLE_HEIGHT + self.rows() as f64 * PANEL_H;
-        draw_legend(pen, &self.legend(), LEGEND_X, legend_y, legend_width())
+        legend_below(pen, &self.legend(), panels.plot_h())
     }
 }
 
@@ -139,23 +139,9 @@ impl GumbelPlot<'_> {
         pen: &Pen<DB>,
         c: &CourseResult,
         e: &ExtremeValue,
-        (x, y, w): (f64, f64, f64),
+        area: &DrawingArea<DB, Shift>,
     ) -> DrawResult<DB> {
         let v = self.0.v;
-        pen.text(
-            &format!(
-                "Course {} · {} drops · T {:.0} · r {:.3}",
-                c.number,
-                e.blocks.len(),
-                e.return_period,
-                e.plot_correlation
-            ),
-            x + 12.0,
-            y + 6.0,
-            LABEL_SIZE,
-            INK,
-            (HPos::Left, VPos::Top),
-        )?;
         let fit_at = |yv: f64| v.thk(crate::calc::units::Thickness(e.fit.at(yv)));
         let y_first = e.plot.first().map_or(0.0, |p| p.reduced_variate);
         let y_t = e.reduced_variate;
@@ -164,33 +150,23 @@ impl GumbelPlot<'_> {
         let mut ys: Vec<f64> = e.plot.iter().map(|p| v.thk(p.loss)).collect();
         ys.extend([fit_at(x0), v.thk(e.loss)]);
         ys.extend(allowance);
-        let lo = ys.iter().copied().fold(f64::INFINITY, f64::min);
-        let hi = ys.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let (lo, hi) = extent(&ys);
         let (y0, y1) = padded(lo, hi, 0.08, hi.abs() * 0.02 + 1e-9);
-        let area = pen.area(x, y + CAPTION_H, w, PANEL_H - CAPTION_H - 6.0);
-        let mut chart = ChartBuilder::on(&area)
+        let mut chart = ChartBuilder::on(area)
             .margin_right(pen.s(16.0))
             .margin_top(pen.s(4.0))
             .x_label_area_size(pen.s(46.0))
             .y_label_area_size(pen.s(70.0))
             .build_cartesian_2d(x0..x1, y0..y1)?;
-        let ydec = tick_decimals(y1 - y0);
-        let yfmt = move |t: &f64| format!("{t:.ydec$}");
+        let yfmt = tick_format(y1 - y0);
         let xfmt = |t: &f64| format!("{t:.0}");
-        chart
-            .configure_mesh()
+        mesh(pen, &mut chart)
             .x_desc("Reduced variate y")
             .y_desc(format!("Wall loss ({})", v.to.thickness_unit()))
-            .label_style(pen.font(TICK_SIZE))
-            .axis_desc_style(pen.font(AXIS_SIZE))
             .x_labels(8)
             .y_labels(6)
             .x_label_formatter(&xfmt)
             .y_label_formatter(&yfmt)
-            .light_line_style(WHITE)
-            .bold_line_style(GRID)
-            .axis_style(GREY)
-            .set_all_tick_mark_size(pen.s(4.0))
             .draw()?;
         let plot = chart.plotting_area();
         let m = |xv: f64, yv: f64| plot.map_coordinate(&(xv, yv));

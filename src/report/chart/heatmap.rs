@@ -17,11 +17,10 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
 use super::draw::{
-    AXIS_SIZE, CellMark, Dash, DrawResult, LEGEND_X, LegendEntry, Marker, Pen, SMALL_SIZE, Shape,
-    Stroke, Swatch, TICK_SIZE, TITLE_HEIGHT, draw_legend, legend_layout, legend_width, palette::*,
-    text_width,
+    AXIS_SIZE, CellMark, Dash, DrawResult, LegendEntry, Marker, Pen, SIDE, SMALL_SIZE, Shape,
+    Stroke, Swatch, TICK_SIZE, TITLE_HEIGHT, extent, figure_size, legend_below, palette::*,
+    text_width, tick_format,
 };
-use super::history::tick_decimals;
 use super::{Figure, Inputs, WIDTH};
 use crate::calc::area::{AreaAssessment, Window};
 use crate::calc::units::Thickness;
@@ -35,7 +34,6 @@ pub struct HeatMap<'a> {
     pub area: usize,
 }
 
-const SIDE: f64 = 10.0;
 /// Left of the grid: the elevation axis.
 const LEFT: f64 = 84.0;
 /// Below the grid: the position axis.
@@ -232,9 +230,7 @@ impl Figure for HeatMap<'_> {
     const TITLE: &'static str = "Local thin area: thickness over grid scan";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        let h = TITLE_HEIGHT + self.layout().block_h + legend_h + 8.0;
-        (WIDTH, h.ceil() as u32)
+        figure_size(self.layout().block_h, &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -280,10 +276,8 @@ impl Figure for HeatMap<'_> {
             .x_label_area_size(pen.s(BOTTOM))
             .y_label_area_size(pen.s(LEFT))
             .build_cartesian_2d(x0..x1, y0..y1)?;
-        let xdec = tick_decimals(x1 - x0);
-        let ydec = tick_decimals(y1 - y0);
-        let xfmt = move |t: &f64| format!("{t:.xdec$}");
-        let yfmt = move |t: &f64| format!("{t:.ydec$}");
+        let xfmt = tick_format(x1 - x0);
+        let yfmt = tick_format(y1 - y0);
         // At most one position label per 50 logical pixels of grid.
         let x_labels = ((l.grid_w / 50.0) as usize).clamp(2, 10);
         chart
@@ -402,13 +396,7 @@ impl Figure for HeatMap<'_> {
         }
         let _ = gy1;
         self.colour_bar(pen, &l, (lo, hi), gx1, gy0)?;
-        draw_legend(
-            pen,
-            &self.legend(),
-            LEGEND_X,
-            TITLE_HEIGHT + l.block_h,
-            legend_width(),
-        )
+        legend_below(pen, &self.legend(), l.block_h)
     }
 }
 
@@ -429,8 +417,7 @@ impl HeatMap<'_> {
             .filter(|t| !s.is_pit(**t))
             .map(|t| v.thk(*t))
             .collect();
-        let lo = values.iter().copied().fold(f64::INFINITY, f64::min);
-        let hi = values.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let (lo, hi) = extent(&values);
         if !(lo.is_finite() && hi.is_finite()) {
             return (0.0, 1.0);
         }
@@ -458,8 +445,7 @@ impl HeatMap<'_> {
         let mut bar = ChartBuilder::on(&area)
             .right_y_label_area_size(pen.s(80.0))
             .build_cartesian_2d(0.0..1.0, lo..hi)?;
-        let dec = tick_decimals(hi - lo);
-        let fmt = move |t: &f64| format!("{t:.dec$}");
+        let fmt = tick_format(hi - lo);
         bar.configure_mesh()
             .disable_x_mesh()
             .disable_y_mesh()

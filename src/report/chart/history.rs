@@ -3,14 +3,14 @@
 //! surveys), the projection at the governing rate from the latest basis thickness,
 //! t_min, the nominal thickness, and the date the projection meets t_min.
 
+use plotters::coord::Shift;
 use plotters::prelude::*;
-use plotters::style::text_anchor::{HPos, VPos};
 
 use super::draw::{
-    AXIS_SIZE, Dash, DrawResult, LABEL_SIZE, LEGEND_X, LegendEntry, Marker, Pen, Shape, Stroke,
-    TICK_SIZE, TITLE_HEIGHT, draw_legend, legend_layout, legend_width, padded, palette::*, year_of,
+    Dash, DrawResult, LegendEntry, Marker, Panels, Pen, Shape, Stroke, extent, figure_size,
+    legend_below, mesh, padded, palette::*, tick_format, year_of,
 };
-use super::{Figure, Inputs, WIDTH};
+use super::{Figure, Inputs};
 use crate::calc::life::{RemainingLife, Status};
 use crate::model::result::CourseResult;
 use crate::model::series::CourseSeries;
@@ -19,8 +19,6 @@ use crate::model::series::CourseSeries;
 pub struct History<'a>(pub Inputs<'a>);
 
 const PANEL_H: f64 = 285.0;
-const CAPTION_H: f64 = 28.0;
-const SIDE: f64 = 10.0;
 
 const READING: Marker = Marker::new(Shape::Circle, LIGHT, false, 2.6).see_through();
 const BASIS: Marker = Marker::new(Shape::Circle, INK, true, 4.2);
@@ -35,11 +33,11 @@ const MEETS: Marker = Marker::new(Shape::Diamond, VERMILLION, true, 6.0);
 const MEETS_LINE: Stroke = Stroke::new(VERMILLION, 1.5, Dash::Short);
 
 impl History<'_> {
-    fn columns(&self) -> usize {
-        if self.0.a.courses.len() <= 1 { 1 } else { 2 }
-    }
-    fn rows(&self) -> usize {
-        self.0.a.courses.len().div_ceil(self.columns()).max(1)
+    fn panels(&self) -> Panels {
+        Panels {
+            count: self.0.a.courses.len(),
+            height: PANEL_H,
+        }
     }
     fn legend(&self) -> Vec<LegendEntry> {
         let s = self.0.s;
@@ -93,9 +91,7 @@ impl Figure for History<'_> {
     const TITLE: &'static str = "Thickness history and projection, by course";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        let h = TITLE_HEIGHT + self.rows() as f64 * PANEL_H + legend_h + 8.0;
-        (WIDTH, h.ceil() as u32)
+        figure_size(self.panels().plot_h(), &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -109,15 +105,12 @@ impl Figure for History<'_> {
                 v.to.thickness_unit()
             ),
         )?;
-        let cols = self.columns();
-        let panel_w = (f64::from(WIDTH) - 2.0 * SIDE) / cols as f64;
+        let panels = self.panels();
         for (i, (c, cs)) in a.courses.iter().zip(&self.0.s.courses).enumerate() {
-            let x = SIDE + (i % cols) as f64 * panel_w;
-            let y = TITLE_HEIGHT + (i / cols) as f64 * PANEL_H;
-            self.panel(pen, c, cs, (x, y, panel_w))?;
+            let area = panels.panel(pen, panels.cell(i), &self.caption(c, cs))?;
+            self.panel(pen, c, cs, &area)?;
         }
-        let legend_y = TITLE_HEIGHT + self.rows() as f64 * PANEL_H;
-        draw_legend(pen, &self.legend(), LEGEND_X, legend_y, legend_width())
+        legend_below(pen, &self.legend(), panels.plot_h())
     }
 }
 
@@ -155,17 +148,9 @@ impl History<'_> {
         pen: &Pen<DB>,
         c: &CourseResult,
         cs: &CourseSeries,
-        (x, y, w): (f64, f64, f64),
+        area: &DrawingArea<DB, Shift>,
     ) -> DrawResult<DB> {
         let Inputs { s, v, .. } = self.0;
-        pen.text(
-            &self.caption(c, cs),
-            x + 12.0,
-            y + 6.0,
-            LABEL_SIZE,
-            INK,
-            (HPos::Left, VPos::Top),
-        )?;
         let t_min = v.thk(c.t_min.value);
         let nominal = v.thk(c.nominal_thickness);
         // Ranges: every value drawn.
@@ -184,35 +169,25 @@ impl History<'_> {
             ys.push(v.thk(l.start.1));
             ys.push(v.thk(l.end.1));
         }
-        let lo = ys.iter().copied().fold(f64::INFINITY, f64::min);
-        let hi = ys.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let (lo, hi) = extent(&ys);
         let (y0, y1) = padded(lo, hi, 0.08, hi.abs() * 0.01 + 1e-9);
         let x1 = year_of(s.horizon);
         let (x0, x1) = padded(x0, x1, 0.03, 0.5);
-        let area = pen.area(x, y + CAPTION_H, w, PANEL_H - CAPTION_H - 6.0);
-        let mut chart = ChartBuilder::on(&area)
+        let mut chart = ChartBuilder::on(area)
             .margin_right(pen.s(14.0))
             .margin_top(pen.s(4.0))
             .x_label_area_size(pen.s(46.0))
             .y_label_area_size(pen.s(70.0))
             .build_cartesian_2d(x0..x1, y0..y1)?;
-        let ydec = tick_decimals(y1 - y0);
-        let yfmt = move |t: &f64| format!("{t:.ydec$}");
+        let yfmt = tick_format(y1 - y0);
         let xfmt = |t: &f64| format!("{t:.0}");
-        chart
-            .configure_mesh()
+        mesh(pen, &mut chart)
             .x_desc("Year")
             .y_desc(format!("Thickness ({})", v.to.thickness_unit()))
-            .label_style(pen.font(TICK_SIZE))
-            .axis_desc_style(pen.font(AXIS_SIZE))
             .x_labels(6)
             .y_labels(6)
             .x_label_formatter(&xfmt)
             .y_label_formatter(&yfmt)
-            .light_line_style(WHITE)
-            .bold_line_style(GRID)
-            .axis_style(GREY)
-            .set_all_tick_mark_size(pen.s(4.0))
             .draw()?;
         let plot = chart.plotting_area();
         let m = |xv: f64, yv: f64| plot.map_coordinate(&(xv, yv));
@@ -265,13 +240,4 @@ impl History<'_> {
         }
         Ok(())
     }
-}
-
-/// Decimals for tick labels over a span, so neighbouring ticks differ.
-pub fn tick_decimals(span: f64) -> usize {
-    if !(span.is_finite() && span > 0.0) {
-        return 1;
-    }
-    let step = span / 6.0;
-    (-(step.log10().floor())).clamp(0.0, 4.0) as usize
 }

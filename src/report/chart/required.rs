@@ -9,12 +9,10 @@
 use plotters::prelude::*;
 
 use super::draw::{
-    AXIS_SIZE, Dash, DrawResult, LEGEND_X, LegendEntry, MarginLabel, Marker, Pen, Shape, Stroke,
-    TICK_SIZE, TITLE_HEIGHT, draw_legend, draw_margin_labels, legend_layout, legend_width,
-    palette::*,
+    Dash, DrawResult, ElevationPlot, LIQUID_LEVEL, LegendEntry, Marker, Pen, Shape, Stroke,
+    figure_size, legend_below, palette::*,
 };
-use super::history::tick_decimals;
-use super::{Figure, Inputs, WIDTH};
+use super::{Figure, Inputs};
 use crate::calc::units::Thickness;
 use crate::model::required::RequiredCourse;
 use crate::report::verdict::sg_text;
@@ -23,8 +21,6 @@ use crate::report::verdict::sg_text;
 pub struct RequiredChart<'a>(pub Inputs<'a>);
 
 const PLOT_H: f64 = 600.0;
-const RIGHT: f64 = 190.0;
-const SIDE: f64 = 10.0;
 /// Where the markers sit in a course, as a fraction of its height from its bottom.
 const ONE_FOOT_AT: f64 = 0.62;
 const VDP_AT: f64 = 0.38;
@@ -33,9 +29,6 @@ const NOMINAL: Stroke = Stroke::new(GREY, 2.0, Dash::Long);
 const ONE_FOOT: Stroke = Stroke::new(DEEP_BLUE, 3.2, Dash::Solid);
 const VDP: Stroke = Stroke::new(ORANGE, 2.6, Dash::Short);
 const MIN_NOMINAL: Stroke = Stroke::new(PURPLE, 2.2, Dash::Dot);
-const LEVEL: Stroke = Stroke::new(SKY, 2.6, Dash::Long);
-const LIQUID: RGBColor = RGBColor(232, 243, 251);
-const BOUNDARY: Stroke = Stroke::new(LIGHT, 1.0, Dash::Solid);
 const ONE_FOOT_DESIGN: Marker = Marker::new(Shape::Circle, DEEP_BLUE, true, 4.5);
 const ONE_FOOT_TEST: Marker = Marker::new(Shape::Triangle, DEEP_BLUE, false, 5.0);
 const VDP_DESIGN: Marker = Marker::new(Shape::Square, ORANGE, true, 4.5);
@@ -96,7 +89,7 @@ impl RequiredChart<'_> {
         e.push(LegendEntry::line("nominal thickness", NOMINAL, None));
         e.push(LegendEntry::line(
             format!("design liquid level {}", v.len_text(d.fill_height)),
-            LEVEL,
+            LIQUID_LEVEL,
             None,
         ));
         e
@@ -108,11 +101,7 @@ impl Figure for RequiredChart<'_> {
     const TITLE: &'static str = "Design check: required thickness against elevation";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        (
-            WIDTH,
-            (TITLE_HEIGHT + PLOT_H + legend_h + 8.0).ceil() as u32,
-        )
+        figure_size(PLOT_H, &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -160,115 +149,50 @@ impl Figure for RequiredChart<'_> {
         }
         let x1 = xs.iter().copied().fold(0.0, f64::max) * 1.08 + 1e-9;
         let y1 = shell.max(level) * 1.04 + 1e-9;
-        let area = pen.area(SIDE, TITLE_HEIGHT, f64::from(WIDTH) - 2.0 * SIDE, PLOT_H);
-        let mut chart = ChartBuilder::on(&area)
-            .margin_right(pen.s(RIGHT))
-            .margin_top(pen.s(6.0))
-            .x_label_area_size(pen.s(50.0))
-            .y_label_area_size(pen.s(76.0))
-            .build_cartesian_2d(0.0..x1, 0.0..y1)?;
-        let xdec = tick_decimals(x1);
-        let xfmt = move |t: &f64| format!("{t:.xdec$}");
-        let ydec = tick_decimals(y1);
-        let yfmt = move |t: &f64| format!("{t:.ydec$}");
-        chart
-            .configure_mesh()
-            .x_desc(format!("Thickness ({})", v.to.thickness_unit()))
-            .y_desc(format!(
-                "Elevation above the tank bottom ({})",
-                v.to.length_unit()
-            ))
-            .label_style(pen.font(TICK_SIZE))
-            .axis_desc_style(pen.font(AXIS_SIZE))
-            .x_labels(10)
-            .y_labels(10)
-            .x_label_formatter(&xfmt)
-            .y_label_formatter(&yfmt)
-            .light_line_style(WHITE)
-            .bold_line_style(GRID)
-            .axis_style(GREY)
-            .set_all_tick_mark_size(pen.s(4.0))
-            .draw()?;
-        let plot = chart.plotting_area();
-        let m = |x: f64, y: f64| plot.map_coordinate(&(x, y));
-        pen.rect(m(0.0, level), m(x1, 0.0), Some(LIQUID), None)?;
-        for c in &d.courses {
-            let top = v.len(c.bottom_elevation) + v.len(c.height);
-            pen.line(&[m(0.0, top), m(x1, top)], &BOUNDARY)?;
-        }
-        let steps = |value: &dyn Fn(&RequiredCourse) -> Option<Thickness>| {
-            let mut paths: Vec<Vec<(i32, i32)>> = vec![Vec::new()];
-            for c in &d.courses {
-                match value(c) {
-                    Some(t) => {
-                        let bottom = v.len(c.bottom_elevation);
-                        let top = bottom + v.len(c.height);
-                        if let Some(p) = paths.last_mut() {
-                            p.push(m(v.thk(t), bottom));
-                            p.push(m(v.thk(t), top));
-                        }
-                    }
-                    None => paths.push(Vec::new()),
-                }
-            }
-            paths
+        let e = ElevationPlot::draw(
+            pen,
+            v,
+            d.courses
+                .iter()
+                .map(|c| (c.number, c.bottom_elevation, c.height)),
+            (x1, y1),
+            level,
+            PLOT_H,
+        )?;
+        let steps = |thickness: fn(&RequiredCourse) -> Option<Thickness>| {
+            e.steps(v, d.courses.iter().map(thickness))
         };
-        for p in steps(&|c| c.nominal) {
+        for p in steps(|c| c.nominal) {
             pen.line(&p, &NOMINAL)?;
         }
         if let Some(c) = d.courses.first() {
             let t = v.thk(c.minimum_nominal);
-            pen.line(&[m(t, 0.0), m(t, shell)], &MIN_NOMINAL)?;
+            pen.line(&[e.m(t, 0.0), e.m(t, shell)], &MIN_NOMINAL)?;
         }
-        for p in steps(&|c| Some(c.required_one_foot)) {
+        for p in steps(|c| Some(c.required_one_foot)) {
             pen.line(&p, &ONE_FOOT)?;
         }
-        for p in steps(&|c| c.required_vdp) {
+        for p in steps(|c| c.required_vdp) {
             pen.line(&p, &VDP)?;
         }
-        pen.line(&[m(0.0, level), m(x1, level)], &LEVEL)?;
-        for c in &d.courses {
-            let at = |f: f64| v.len(c.bottom_elevation) + v.len(c.height) * f;
-            pen.marker(m(v.thk(c.one_foot.test), at(ONE_FOOT_AT)), &ONE_FOOT_TEST)?;
+        e.level_line(pen)?;
+        for (c, span) in d.courses.iter().zip(e.courses()) {
             pen.marker(
-                m(v.thk(c.one_foot.design), at(ONE_FOOT_AT)),
+                e.m(v.thk(c.one_foot.test), span.at(ONE_FOOT_AT)),
+                &ONE_FOOT_TEST,
+            )?;
+            pen.marker(
+                e.m(v.thk(c.one_foot.design), span.at(ONE_FOOT_AT)),
                 &ONE_FOOT_DESIGN,
             )?;
             if let Some(t) = c.vdp_test_thickness() {
-                pen.marker(m(v.thk(t), at(VDP_AT)), &VDP_TEST)?;
+                pen.marker(e.m(v.thk(t), span.at(VDP_AT)), &VDP_TEST)?;
             }
             if let Some(t) = c.vdp_design_thickness() {
-                pen.marker(m(v.thk(t), at(VDP_AT)), &VDP_DESIGN)?;
+                pen.marker(e.m(v.thk(t), span.at(VDP_AT)), &VDP_DESIGN)?;
             }
         }
-        let mut labels: Vec<MarginLabel> = d
-            .courses
-            .iter()
-            .map(|c| MarginLabel {
-                text: format!("course {}", c.number),
-                y: m(x1, v.len(c.bottom_elevation) + v.len(c.height) / 2.0).1,
-                color: INK,
-                marker: None,
-            })
-            .collect();
-        labels.push(MarginLabel {
-            text: format!("design level {}", v.len_text(d.fill_height)),
-            y: m(x1, level).1,
-            color: DEEP_BLUE,
-            marker: None,
-        });
-        draw_margin_labels(
-            pen,
-            &labels,
-            m(x1, 0.0).0 + pen.s(12.0),
-            (m(x1, y1).1, m(x1, 0.0).1),
-        )?;
-        draw_legend(
-            pen,
-            &self.legend(),
-            LEGEND_X,
-            TITLE_HEIGHT + PLOT_H,
-            legend_width(),
-        )
+        e.margin_labels(pen, format!("design level {}", v.len_text(d.fill_height)))?;
+        legend_below(pen, &self.legend(), PLOT_H)
     }
 }

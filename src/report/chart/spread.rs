@@ -6,11 +6,10 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
 use super::draw::{
-    AXIS_SIZE, Dash, DrawResult, LEGEND_X, LegendEntry, Marker, Pen, SMALL_SIZE, Shape, Stroke,
-    TICK_SIZE, TITLE_HEIGHT, draw_legend, legend_layout, legend_width, padded, palette::*,
+    Dash, DrawResult, LegendEntry, Marker, Pen, SMALL_SIZE, Shape, Stroke, TICK_SIZE, extent,
+    figure_size, legend_below, mesh, padded, palette::*, tick_format,
 };
-use super::history::tick_decimals;
-use super::{Figure, Inputs, WIDTH};
+use super::{Figure, Inputs};
 
 /// The chart.
 pub struct Spread<'a>(pub Inputs<'a>);
@@ -18,7 +17,6 @@ pub struct Spread<'a>(pub Inputs<'a>);
 const ROW_H: f64 = 74.0;
 const AXES_H: f64 = 66.0;
 const RIGHT: f64 = 170.0;
-const SIDE: f64 = 10.0;
 const LEFT: f64 = 96.0;
 /// Rows of dots under the box, so that equal readings do not hide each other.
 const LANES: usize = 4;
@@ -59,11 +57,7 @@ impl Figure for Spread<'_> {
     const TITLE: &'static str = "Readings of each course at its latest survey";
 
     fn size(&self) -> (u32, u32) {
-        let legend_h = legend_layout(&self.legend(), legend_width()).height();
-        (
-            WIDTH,
-            (TITLE_HEIGHT + self.plot_h() + legend_h + 8.0).ceil() as u32,
-        )
+        figure_size(self.plot_h(), &self.legend())
     }
 
     fn draw<DB: DrawingBackend>(&self, pen: &Pen<DB>) -> DrawResult<DB> {
@@ -83,32 +77,23 @@ impl Figure for Spread<'_> {
             xs.push(v.thk(c.t_min.value));
             xs.extend(cs.latest.iter().map(|r| v.thk(r.thickness)));
         }
-        let lo = xs.iter().copied().fold(f64::INFINITY, f64::min);
-        let hi = xs.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let (lo, hi) = extent(&xs);
         let (x0, x1) = padded(lo, hi, 0.04, hi.abs() * 0.01 + 1e-9);
         let (y0, y1) = (0.5, n as f64 + 0.5);
         let plot_h = self.plot_h();
-        let area = pen.area(SIDE, TITLE_HEIGHT, f64::from(WIDTH) - 2.0 * SIDE, plot_h);
+        let area = pen.plot_area(plot_h);
         let mut chart = ChartBuilder::on(&area)
             .margin_right(pen.s(RIGHT))
             .margin_top(pen.s(6.0))
             .x_label_area_size(pen.s(50.0))
             .y_label_area_size(pen.s(LEFT))
             .build_cartesian_2d(x0..x1, y0..y1)?;
-        let xdec = tick_decimals(x1 - x0);
-        let xfmt = move |t: &f64| format!("{t:.xdec$}");
-        chart
-            .configure_mesh()
+        let xfmt = tick_format(x1 - x0);
+        mesh(pen, &mut chart)
             .x_desc(format!("Thickness ({})", v.to.thickness_unit()))
-            .label_style(pen.font(TICK_SIZE))
-            .axis_desc_style(pen.font(AXIS_SIZE))
             .x_labels(10)
             .y_labels(0)
             .x_label_formatter(&xfmt)
-            .light_line_style(WHITE)
-            .bold_line_style(GRID)
-            .axis_style(GREY)
-            .set_all_tick_mark_size(pen.s(4.0))
             .draw()?;
         let plot = chart.plotting_area();
         let m = |x: f64, y: f64| plot.map_coordinate(&(x, y));
@@ -179,12 +164,6 @@ impl Figure for Spread<'_> {
                 )?;
             }
         }
-        draw_legend(
-            pen,
-            &self.legend(),
-            LEGEND_X,
-            TITLE_HEIGHT + plot_h,
-            legend_width(),
-        )
+        legend_below(pen, &self.legend(), plot_h)
     }
 }
