@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Runs each fuzz target for SECONDS (default 600), one after the other, with one job
 # (the machines have 2 cores). Usage:
-#   fuzz/run.sh [SECONDS] [TARGET...]        targets: survey_csv tank_file
+#   fuzz/run.sh [SECONDS] [TARGET...]        targets: survey_csv tank_file scan_csv
 # Needs cargo-fuzz (`cargo install cargo-fuzz`). Only a stable toolchain exists here;
 # RUSTC_BOOTSTRAP=1 lets it use the nightly-only flags that cargo-fuzz passes.
 # Starting corpus: the sample tanks and the bad-input corpus (tests/corpus). Crashing inputs are
@@ -12,7 +12,7 @@ cd "$(dirname "$0")/.."
 secs="${1:-600}"
 shift || true
 targets=("$@")
-[ "${#targets[@]}" -eq 0 ] && targets=(survey_csv tank_file)
+[ "${#targets[@]}" -eq 0 ] && targets=(survey_csv tank_file scan_csv)
 
 prime_corpus() {
   local target="$1" dir="fuzz/corpus/$1"
@@ -30,6 +30,13 @@ prime_corpus() {
       for f in sample-inspections/*/tank.toml tests/corpus/*/tank.toml; do
         [ -f "$f" ] && cp "$f" "$dir/start-$(echo "$f" | tr '/' '_')"
       done ;;
+    scan_csv)
+      # The first byte chooses the tank (0 none, 1 the SI sample kestrel-t12, 2 the USC
+      # sample kestrel-t03): the sample scan with each, and a small USC grid.
+      for n in 0 1; do
+        { printf "\\00$n"; cat sample-inspections/kestrel-t12/scans/*.csv; } > "$dir/start-si-$n"
+      done
+      printf '\002# course = 1\n# date = 2024-06-01\n# bottom_elevation = 0.5\n# row_pitch = 2\n# column_pitch = 2\n# pit_threshold = 0.2\n0.31,0.30,\n0.29,0.15,0.30\n0.31,0.30,0.32\n' > "$dir/start-usc" ;;
   esac
 }
 

@@ -6,6 +6,7 @@ use chrono::NaiveDate;
 use libfuzzer_sys::fuzz_target;
 use strake::calc::units::{Length, Thickness, UnitSystem};
 use strake::input::survey_csv::{SurveyContext, read_survey};
+use strake::model::reading::PointNames;
 
 fuzz_target!(|data: &[u8]| {
     // The first byte chooses the context: no tank, an SI tank or a USC tank.
@@ -38,7 +39,10 @@ fuzz_target!(|data: &[u8]| {
         },
     };
     let mut out = Vec::new();
-    match read_survey("fuzz.csv", bytes, 0, &ctx, &mut out) {
+    let mut points = PointNames::default();
+    // (The reader streams from an owned `Read`: the bytes are copied into one.)
+    let input = std::io::Cursor::new(bytes.to_vec());
+    match read_survey("fuzz.csv", input, 0, &ctx, &mut points, &mut out) {
         Ok(info) => {
             assert_eq!(info.rows, out.len(), "every row read is returned");
             for r in &out {

@@ -460,9 +460,11 @@ mod readers {
     use chrono::NaiveDate;
     use proptest::prelude::*;
     use strake::calc::units::{Length, Thickness, UnitSystem};
+    use strake::input::scan_csv::read_scan;
     use strake::input::survey_csv::{SurveyContext, read_survey};
     use strake::input::tank_dir::tank_from_bytes;
     use strake::input::tank_file::parse_tank;
+    use strake::model::tank::Tank;
 
     fn contexts() -> [SurveyContext; 2] {
         let today = NaiveDate::from_ymd_opt(2026, 12, 1).expect("date");
@@ -519,6 +521,85 @@ mod readers {
             }
         }
         Ok(())
+    }
+
+    /// The SI sample tank, for scans read against a tank.
+    fn scan_tank() -> Tank {
+        tank_from_bytes(
+            "tank.toml",
+            include_bytes!("../../sample-inspections/kestrel-t12/tank.toml"),
+        )
+        .expect("the sample tank file reads")
+    }
+
+    /// Reads `bytes` as a scan without a tank and against `tank`; an accepted scan is a
+    /// whole grid of valid readings; a refused one gives a one-line message of bounded
+    /// size.
+    fn scan_holds(bytes: &[u8], tank: &Tank) -> Result<(), TestCaseError> {
+        let today = NaiveDate::from_ymd_opt(2026, 12, 1).expect("date");
+        for tank in [None, Some(tank)] {
+            match read_scan("s.csv", bytes, tank, today) {
+                Ok(scan) => {
+                    prop_assert!(scan.rows() >= 1 && scan.columns() >= 1);
+                    prop_assert_eq!(scan.lines.len(), scan.rows());
+                    for row in &scan.cells {
+                        prop_assert_eq!(row.len(), scan.columns());
+                        for t in row.iter().flatten() {
+                            prop_assert!(t.0.is_finite() && t.0 > 0.0);
+                        }
+                    }
+                    prop_assert!(scan.row_pitch.0 > 0.0 && scan.column_pitch.0 > 0.0);
+                    prop_assert!(scan.date <= today);
+                    if let Some(tank) = tank {
+                        prop_assert!(tank.courses.iter().any(|c| c.number == scan.course));
+                    }
+                }
+                Err(e) => {
+                    let m = e.to_string();
+                    prop_assert!(m.starts_with("s.csv"), "{}", m);
+                    prop_assert!(!m.contains('\n') && m.len() < 1000, "{}", m);
+                }
+            }
+        }
+        Ok(())
+    }
+
+    /// Text made of the pieces of a scan file: header lines and grid cells.
+    fn scan_like() -> impl Strategy<Value = String> {
+        let key = prop_oneof![
+            Just("course"),
+            Just("date"),
+            Just("bottom_elevation"),
+            Just("row_pitch"),
+            Just("column_pitch"),
+            Just("pit_threshold"),
+            Just("row_pich"),
+        ];
+        let value = prop_oneof![
+            Just("1".to_string()),
+            Just("2024-06-01".to_string()),
+            Just("2023-02-30".to_string()),
+            Just("0".to_string()),
+            Just("nan".to_string()),
+            "-?[0-9]{1,3}([.,][0-9]{1,2})?",
+            ".{0,4}",
+        ];
+        let cell = prop_oneof![
+            "[0-9]{1,2}([.,][0-9]{1,2})?",
+            Just(String::new()),
+            Just("-3".to_string()),
+            Just("x".to_string()),
+            ".{0,3}",
+        ];
+        let line = prop_oneof![
+            3 => (key, value).prop_map(|(k, v)| format!("# {k} = {v}\n")),
+            4 => (proptest::collection::vec(cell, 1..6), prop_oneof![Just(","), Just(";"), Just("\t")])
+                .prop_map(|(cells, d)| format!("{}\n", cells.join(d))),
+            1 => Just("\n".to_string()),
+            1 => Just("# a comment\n".to_string()),
+            1 => ".{0,6}\n",
+        ];
+        proptest::collection::vec(line, 0..30).prop_map(|v| v.concat())
     }
 
     /// Text made of the pieces a survey file is made of, in any order.
@@ -605,6 +686,23 @@ mod readers {
             survey_holds(text.as_bytes())?;
             let with_header = format!("date,course,point,thickness\n{text}");
             survey_holds(with_header.as_bytes())?;
+        }
+
+        #[test]
+        fn scan_reader_never_panics_on_bytes(bytes in proptest::collection::vec(any::<u8>(), 0..2048)) {
+            scan_holds(&bytes, &scan_tank())?;
+        }
+
+        #[test]
+        fn scan_reader_never_panics_on_scan_like_text(text in scan_like()) {
+            let tank = scan_tank();
+            scan_holds(text.as_bytes(), &tank)?;
+            // With a whole header first, so that the grid itself is read.
+            let with_header = format!(
+                "# course = 1\n# date = 2024-06-01\n# bottom_elevation = 0.1\n\
+                 # row_pitch = 50\n# column_pitch = 50\n{text}"
+            );
+            scan_holds(with_header.as_bytes(), &tank)?;
         }
 
         #[test]
