@@ -239,21 +239,48 @@ proptest! {
         if !tank_level_comparable {
             return Ok(());
         }
-        prop_assert_eq!(si.summary.governing_course, us.summary.governing_course);
-        // The interval RCA / (2 N) of the setting course moves by at most dt / (2 N).
+        // The governing course is the one with the least remaining life: the same in
+        // both forms, unless two courses tie within the forms' difference (each course's
+        // life moves by at most dt / N between the forms, see above), when either may
+        // govern.
+        let (ga, gb) = (si.summary.governing_course, us.summary.governing_course);
+        if ga != gb {
+            // Per course: its life in each form and how far the forms may move it (dt / N).
+            let life = |n: Option<u32>| {
+                let a = si.courses.iter().find(|c| Some(c.number) == n)?;
+                let b = us.courses.iter().find(|c| Some(c.number) == n)?;
+                let (ka, kb) = (a.condition.as_ref()?, b.condition.as_ref()?);
+                let dt = (b.t_min.value.convert(UnitSystem::Usc, UnitSystem::Si).0 - a.t_min.value.0).abs();
+                let slack = ka.rate_value().filter(|n| n.0 > 0.0).map_or(0.0, |n| dt / n.0);
+                Some((ka.remaining_life.years()?, kb.remaining_life.years()?, slack))
+            };
+            let tie = match (life(ga), life(gb)) {
+                (Some((xa, ya, sa)), Some((xb, yb, sb))) => {
+                    let close = |p: f64, q: f64| (p - q).abs() <= sa + sb + 0.01 * p.max(q) + 1e-9;
+                    close(xa, xb) && close(ya, yb)
+                }
+                _ => false,
+            };
+            prop_assert!(
+                tie,
+                "governing course {:?} vs {:?}: (SI life, USC life, slack) {:?} and {:?}",
+                ga, gb, life(ga), life(gb)
+            );
+        }
+        // The UT interval is the least over the courses of RCA / (2 N); each course's
+        // moves by at most dt / (2 N) between the forms, so the least moves by at most
+        // the largest of these (whichever course sets it).
         let (ua, ub) = (si.summary.ut_interval.years, us.summary.ut_interval.years);
         let slack = si
-            .summary
-            .ut_interval
-            .course
-            .and_then(|n| {
-                let a = si.courses.iter().find(|c| c.number == n)?;
-                let b = us.courses.iter().find(|c| c.number == n)?;
+            .courses
+            .iter()
+            .zip(&us.courses)
+            .filter_map(|(a, b)| {
                 let dt = (b.t_min.value.convert(UnitSystem::Usc, UnitSystem::Si).0 - a.t_min.value.0).abs();
                 let rate = a.condition.as_ref()?.rate_value()?.0;
                 (rate > 0.0).then(|| dt / (2.0 * rate))
             })
-            .unwrap_or(0.0);
+            .fold(0.0, f64::max);
         prop_assert!((ua - ub).abs() <= 0.01 * ua + slack * 1.0001 + 1e-9, "UT interval {} vs {}", ua, ub);
         let (da, db) = (si.summary.next_ut_inspection, us.summary.next_ut_inspection);
         if let (Some(da), Some(db)) = (da, db) {
@@ -305,7 +332,7 @@ fn grid() -> impl Strategy<Value = (Vec<Vec<Option<f64>>>, f64, f64, Option<f64>
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(256))]
+    #![proptest_config(ProptestConfig::with_cases(3000))]
 
     /// Local areas (API 653 4.3.2 with the local t_min, methods.md s.4): a thickness
     /// rule passes exactly when the level the area allows after the same corrosion is
@@ -379,7 +406,7 @@ proptest! {
 const AS_OF_SPAN_DAYS: i64 = 7875;
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(128))]
+    #![proptest_config(ProptestConfig::with_cases(3000))]
 
     /// A heavier product never raises the allowable liquid level (methods.md s.4:
     /// H_max = S E t / (4.9 D G) + 0.3 + z falls as G rises): per course and for the
@@ -430,9 +457,18 @@ proptest! {
     ) {
         let first = date(SURVEYS[0].0, SURVEYS[0].1, SURVEYS[0].2);
         let as1 = first + chrono::Duration::days(d1);
-        let as2 = first + chrono::Duration::days((d1 + gap).min(AS_OF_SPAN_DAYS));
+        // The later date stays before the next survey after the first (no new survey).
+        let next_survey = SURVEYS
+            .iter()
+            .map(|&(y, m, dd)| date(y, m, dd))
+            .find(|&d| d > as1);
+        let mut as2 = first + chrono::Duration::days((d1 + gap).min(AS_OF_SPAN_DAYS));
+        if let Some(next) = next_survey {
+            as2 = as2.min(next - chrono::Duration::days(1));
+        }
         let surveys_upto = |d: NaiveDate| SURVEYS.iter().filter(|&&(y, m, dd)| date(y, m, dd) <= d).count();
-        prop_assume!(surveys_upto(as1) == surveys_upto(as2));
+        prop_assert!(as2 >= as1);
+        prop_assert_eq!(surveys_upto(as1), surveys_upto(as2));
         let (t, r) = tank(&case, UnitSystem::Si);
         let at = |d: NaiveDate| {
             assess(&t, &r, AssessOptions { as_of: Some(d), ..AssessOptions::default() })
