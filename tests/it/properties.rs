@@ -332,7 +332,7 @@ fn grid() -> impl Strategy<Value = (Vec<Vec<Option<f64>>>, f64, f64, Option<f64>
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(3000))]
+    #![proptest_config(ProptestConfig::with_cases(256))]
 
     /// Local areas (API 653 4.3.2 with the local t_min, methods.md s.4): a thickness
     /// rule passes exactly when the level the area allows after the same corrosion is
@@ -406,7 +406,7 @@ proptest! {
 const AS_OF_SPAN_DAYS: i64 = 7875;
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(3000))]
+    #![proptest_config(ProptestConfig::with_cases(128))]
 
     /// A heavier product never raises the allowable liquid level (methods.md s.4:
     /// H_max = S E t / (4.9 D G) + 0.3 + z falls as G rises): per course and for the
