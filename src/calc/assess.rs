@@ -140,9 +140,18 @@ pub fn assess_tally(
         warnings.push(Warning::SuspectReading {
             location: locate(s.origin),
             course: s.course,
-            thickness: Shown::thickness(s.thickness, units),
+            thickness: Shown::thickness(s.thickness, units).significant(),
             nominal: Shown::thickness(s.nominal, units),
             kind: s.kind,
+        });
+    }
+    for m in &tally.misplaced {
+        warnings.push(Warning::ElevationOutsideCourse {
+            location: locate(m.origin),
+            course: m.course,
+            elevation: Shown::length(m.elevation, units),
+            bottom: Shown::length(m.bottom, units),
+            top: Shown::length(m.top, units),
         });
     }
     let mut per_date: BTreeMap<NaiveDate, usize> = BTreeMap::new();
@@ -535,7 +544,7 @@ fn course_warnings(
     if k.max_fill_height.below_floor {
         out.push(Warning::BelowFloor {
             course: number,
-            thickness: Shown::thickness(k.t_actual(), units),
+            thickness: Shown::thickness(k.t_actual(), units).significant(),
             floor: Shown::thickness(t_min.form.floor, units),
         });
     }

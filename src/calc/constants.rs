@@ -149,6 +149,11 @@ pub const SUSPECT_ABOVE_NOMINAL_FACTOR: f64 = 1.10;
 /// A reading below half of nominal is flagged as suspect (a lamination, a doubled
 /// echo, or a real hole; common practice).
 pub const SUSPECT_BELOW_NOMINAL_FACTOR: f64 = 0.5;
+/// A reading whose elevation lies outside its course's band by more than this
+/// fraction of the course height is flagged: the course number or the elevation is
+/// wrong (the project's judgement, common practice: a gauge position is read to a few
+/// centimetres, and readings beside a horizontal weld sit at the band's edge).
+pub const ELEVATION_BAND_TOLERANCE: f64 = 0.1;
 /// A reading over three times nominal is rejected as a unit mistake (common practice:
 /// mm typed into an inch file gives 25x).
 pub const UNIT_MISTAKE_FACTOR: f64 = 3.0;

@@ -1,12 +1,12 @@
 //! Screening of readings before assessment (`strake check`): counts per course and
-//! date, and suspect readings (more than 10 % above nominal, below half of nominal;
-//! common practice, see survey.rs).
+//! date, and suspect readings (more than 10 % above nominal, below half of nominal, an
+//! elevation outside the reading's course; common practice, see survey.rs).
 
 use std::collections::BTreeMap;
 
 use chrono::NaiveDate;
 
-use super::survey::suspect_reading;
+use super::survey::{outside_course_band, suspect_reading};
 use crate::model::reading::ReadingSet;
 use crate::model::tank::Tank;
 use crate::model::warning::{Shown, Warning};
@@ -50,9 +50,23 @@ pub fn screen(tank: Option<&Tank>, set: &ReadingSet) -> Screening {
             s.suspects.push(Warning::SuspectReading {
                 location: set.locate(r.origin),
                 course: r.course,
-                thickness: Shown::thickness(r.thickness, t.units),
+                thickness: Shown::thickness(r.thickness, t.units).significant(),
                 nominal: Shown::thickness(course.nominal_thickness, t.units),
                 kind,
+            });
+        }
+        if let Some(e) = r.elevation
+            && outside_course_band(e, course.bottom_elevation, course.height)
+        {
+            s.suspects.push(Warning::ElevationOutsideCourse {
+                location: set.locate(r.origin),
+                course: r.course,
+                elevation: Shown::length(e, t.units),
+                bottom: Shown::length(course.bottom_elevation, t.units),
+                top: Shown::length(
+                    crate::calc::units::Length(course.bottom_elevation.0 + course.height.0),
+                    t.units,
+                ),
             });
         }
     }

@@ -16,8 +16,10 @@
 use chrono::NaiveDate;
 use statrs::statistics::{Accumulate, OnlineVariance};
 
-use super::constants::{SUSPECT_ABOVE_NOMINAL_FACTOR, SUSPECT_BELOW_NOMINAL_FACTOR};
-use super::units::Thickness;
+use super::constants::{
+    ELEVATION_BAND_TOLERANCE, SUSPECT_ABOVE_NOMINAL_FACTOR, SUSPECT_BELOW_NOMINAL_FACTOR,
+};
+use super::units::{Length, Thickness};
 use crate::model::tank::ThicknessBasis;
 
 /// One course at one survey date.
@@ -118,6 +120,14 @@ pub enum SuspectKind {
     BelowHalfNominal,
 }
 
+/// True when a reading's `elevation` lies outside the band of a course from
+/// `bottom` to `bottom + height`, by more than [`ELEVATION_BAND_TOLERANCE`] of the
+/// height (common practice, see constants.rs).
+pub fn outside_course_band(elevation: Length, bottom: Length, height: Length) -> bool {
+    let tolerance = ELEVATION_BAND_TOLERANCE * height.0;
+    elevation.0 < bottom.0 - tolerance || elevation.0 > bottom.0 + height.0 + tolerance
+}
+
 /// Flags a reading that is implausible against the course's nominal thickness.
 pub fn suspect_reading(thickness: Thickness, nominal: Thickness) -> Option<SuspectKind> {
     if thickness.0 > nominal.0 * SUSPECT_ABOVE_NOMINAL_FACTOR {
@@ -189,6 +199,29 @@ mod tests {
 
     /// Limits: nominal 10: 11.0 is not above 10 % (11.0 > 11.0 is false), 11.01 is;
     /// 5.0 is not below half, 4.99 is (common practice thresholds).
+    /// A course from 2.4 m to 4.8 m (height 2.4 m): the tolerance is 0.24 m, so the
+    /// band stretches from 2.16 m to 5.04 m (constants.rs, common practice).
+    #[test]
+    fn course_band_limits() {
+        let (bottom, height) = (Length(2.4), Length(2.4));
+        for (e, outside) in [
+            (2.4, false),
+            (4.8, false),
+            (2.17, false),
+            (5.03, false),
+            (2.15, true),
+            (5.05, true),
+            (0.3, true),
+            (30.0, true),
+        ] {
+            assert_eq!(
+                outside_course_band(Length(e), bottom, height),
+                outside,
+                "{e}"
+            );
+        }
+    }
+
     #[test]
     fn suspect_limits() {
         let n = Thickness(10.0);

@@ -20,8 +20,8 @@ use chrono::NaiveDate;
 use super::assess::AssessOptions;
 use super::extreme::Drops;
 use super::points::PointSpan;
-use super::survey::{ReadingStats, SuspectKind, suspect_reading};
-use super::units::Thickness;
+use super::survey::{ReadingStats, SuspectKind, outside_course_band, suspect_reading};
+use super::units::{Length, Thickness};
 use crate::model::reading::{Origin, PointKey, ReadingRef, ReadingSink};
 use crate::model::tank::Tank;
 
@@ -53,6 +53,21 @@ pub struct Suspect {
     pub kind: SuspectKind,
 }
 
+/// A reading whose elevation lies outside its course's band.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Misplaced {
+    /// File and line.
+    pub origin: Origin,
+    /// Course given in the row.
+    pub course: u32,
+    /// Elevation given in the row.
+    pub elevation: Length,
+    /// Bottom of the course.
+    pub bottom: Length,
+    /// Top of the course.
+    pub top: Length,
+}
+
 /// Marks a point key without a span yet.
 const NONE: u32 = u32::MAX;
 
@@ -62,6 +77,8 @@ pub struct Tally {
     /// What-if values and the assessment date the readings are gathered for.
     pub options: AssessOptions,
     nominal: Vec<(u32, Thickness)>,
+    /// Per course: number, bottom elevation and height.
+    bands: Vec<(u32, Length, Length)>,
     /// Earliest date of any reading, used or not.
     pub earliest: Option<NaiveDate>,
     /// Readings dated after `options.as_of`, left out.
@@ -76,6 +93,8 @@ pub struct Tally {
     span_of_key_elsewhere: FxHashMap<(u32, PointKey), u32>,
     /// Suspect readings, in the order read.
     pub suspects: Vec<Suspect>,
+    /// Readings outside their course's band, in the order read.
+    pub misplaced: Vec<Misplaced>,
 }
 
 impl Tally {
@@ -88,6 +107,11 @@ impl Tally {
                 .iter()
                 .map(|c| (c.number, c.nominal_thickness))
                 .collect(),
+            bands: tank
+                .courses
+                .iter()
+                .map(|c| (c.number, c.bottom_elevation, c.height))
+                .collect(),
             earliest: None,
             excluded: 0,
             groups: Vec::new(),
@@ -97,6 +121,7 @@ impl Tally {
             span_of_key: Vec::new(),
             span_of_key_elsewhere: FxHashMap::default(),
             suspects: Vec::new(),
+            misplaced: Vec::new(),
         }
     }
 
@@ -109,6 +134,18 @@ impl Tally {
                 .iter()
                 .find(|(n, _)| *n == number)
                 .map(|&(_, t)| t),
+        }
+    }
+
+    /// Bottom elevation and height of course `number`.
+    fn band_of(&self, number: u32) -> Option<(Length, Length)> {
+        match self.bands.get((number as usize).wrapping_sub(1)) {
+            Some(&(n, bottom, height)) if n == number => Some((bottom, height)),
+            _ => self
+                .bands
+                .iter()
+                .find(|(n, _, _)| *n == number)
+                .map(|&(_, bottom, height)| (bottom, height)),
         }
     }
 
@@ -203,6 +240,18 @@ impl ReadingSink for Tally {
                     }
                 }
             }
+        }
+        if let Some(elevation) = r.elevation
+            && let Some((bottom, height)) = self.band_of(r.course)
+            && outside_course_band(elevation, bottom, height)
+        {
+            self.misplaced.push(Misplaced {
+                origin: r.origin,
+                course: r.course,
+                elevation,
+                bottom,
+                top: Length(bottom.0 + height.0),
+            });
         }
         if let Some(nominal) = self.nominal_of(r.course)
             && let Some(kind) = suspect_reading(r.thickness, nominal)

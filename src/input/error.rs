@@ -151,8 +151,9 @@ pub enum InputErrorKind {
     },
     /// A row with the wrong number of fields.
     #[error(
-        "{found} fields, expected {expected} as in the header (check the delimiter and quotes): \
-         \"{row}\""
+        "{found} field{}, expected {expected} as in the header (check the delimiter and \
+         quotes): \"{row}\"",
+        if *.found == 1 { "" } else { "s" }
     )]
     FieldCount {
         /// Fields in the row.

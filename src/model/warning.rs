@@ -9,7 +9,7 @@ use chrono::NaiveDate;
 
 use crate::calc::rates::RateUnavailable;
 use crate::calc::survey::SuspectKind;
-use crate::calc::units::{Rate, Thickness, UnitSystem};
+use crate::calc::units::{Length, Rate, Thickness, UnitSystem};
 use crate::model::tank::RateBasis;
 
 /// A number with the unit it is in, for messages.
@@ -35,6 +35,26 @@ impl Shown {
     /// One more decimal, for comparing two close values.
     pub fn finer(mut self) -> Self {
         self.decimals += 1;
+        self
+    }
+    /// A length or elevation in the unit of `units`, to 0.01 m or 0.01 ft.
+    pub fn length(l: Length, units: UnitSystem) -> Self {
+        Shown {
+            value: l.0,
+            unit: units.length_unit(),
+            decimals: 2,
+        }
+    }
+    /// With as many more decimals as a small value other than zero needs to show two
+    /// significant digits (a reading of 0.0001 in is not shown as 0.000 in).
+    pub fn significant(mut self) -> Self {
+        let magnitude = self.value.abs();
+        if magnitude > 0.0
+            && magnitude.is_finite()
+            && magnitude < 10f64.powi(1 - self.decimals as i32)
+        {
+            self.decimals = (1.0 - magnitude.log10().floor()) as usize;
+        }
         self
     }
     /// A rate in the unit of `units`.
@@ -120,6 +140,19 @@ pub enum Warning {
         nominal: Shown,
         /// Which test it failed.
         kind: SuspectKind,
+    },
+    /// A reading whose elevation lies outside its course's band.
+    ElevationOutsideCourse {
+        /// file:line.
+        location: String,
+        /// Course given in the row.
+        course: u32,
+        /// The elevation given in the row.
+        elevation: Shown,
+        /// Bottom of the course.
+        bottom: Shown,
+        /// Top of the course.
+        top: Shown,
     },
     /// The same point and date appear twice with the same value; counted once.
     DuplicateReading {
@@ -315,6 +348,18 @@ impl fmt::Display for Warning {
                 f,
                 "course {course}: no corrosion rate (one survey and no in_service_since in \
                  tank.toml): remaining life unknown; add the in-service date or a second survey"
+            ),
+            Warning::ElevationOutsideCourse {
+                location,
+                course,
+                elevation,
+                bottom,
+                top,
+            } => write!(
+                f,
+                "{location}: course {course}: reading at elevation {elevation} lies outside \
+                 the course ({bottom} to {top}); kept on course {course}: check the course \
+                 number or the elevation"
             ),
             Warning::SuspectReading {
                 location,

@@ -50,6 +50,41 @@ fn summarises_a_tank_and_flags_suspects() {
     }
 }
 
+/// Course 2 runs from 2.50 m to 5.00 m; the tolerance is a tenth of its height
+/// (0.25 m, constants.rs, common practice): 5.20 m is inside, 5.30 m and 1.00 m are not.
+#[test]
+fn flags_an_elevation_outside_its_course() {
+    let fx = TankFixture::new(SMALL_SI_TANK).survey(
+        "a.csv",
+        "date,course,point,elevation_m,thickness
+2024-01-01,2,P1,5.20,7.9
+         2024-01-01,2,P2,5.30,7.9
+2024-01-01,2,P3,1.00,7.9
+",
+    );
+    let dir = fx.path().to_str().expect("utf-8 path");
+    let run = strake(["check", dir]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let file = fx.shown("surveys/a.csv");
+    let flat = run.stdout.split_whitespace().collect::<Vec<_>>().join(" ");
+    for (line, elevation) in [(3, "5.30"), (4, "1.00")] {
+        let remark = format!(
+            "- {file}:{line}: course 2: reading at elevation {elevation} m lies outside the \
+             course (2.50 m to 5.00 m); kept on course 2: check the course number or the elevation"
+        );
+        assert!(
+            flat.contains(&remark),
+            "missing {remark:?} in\n{}",
+            run.stdout
+        );
+    }
+    assert!(
+        !flat.contains(&format!("{file}:2:")),
+        "5.20 m is inside:\n{}",
+        run.stdout
+    );
+}
+
 #[test]
 fn one_bad_path_does_not_stop_the_others() {
     let good = sample("kestrel-t03");
