@@ -154,6 +154,10 @@ pub const SUSPECT_BELOW_NOMINAL_FACTOR: f64 = 0.5;
 /// wrong (the project's judgement, common practice: a gauge position is read to a few
 /// centimetres, and readings beside a horizontal weld sit at the band's edge).
 pub const ELEVATION_BAND_TOLERANCE: f64 = 0.1;
+/// The least spacing of a scan grid's rows or columns, mm: an ultrasonic probe is
+/// several millimetres across and grids are scanned at 10 mm or more, so a smaller
+/// pitch is a unit mistake (metres typed for millimetres; common practice).
+pub const MIN_SCAN_PITCH_MM: f64 = 1.0;
 /// A reading over three times nominal is rejected as a unit mistake (common practice:
 /// mm typed into an inch file gives 25x).
 pub const UNIT_MISTAKE_FACTOR: f64 = 3.0;

@@ -22,8 +22,8 @@ use chrono::NaiveDate;
 use super::error::echo;
 use super::error::{InputError, InputErrorKind, Location, nearest};
 use super::survey_csv::{BOM, COMMA_HINT, NumberText, example_thickness, read_number};
-use crate::calc::constants::UNIT_MISTAKE_FACTOR;
-use crate::calc::units::{Length, Thickness};
+use crate::calc::constants::{MIN_SCAN_PITCH_MM, UNIT_MISTAKE_FACTOR};
+use crate::calc::units::{Length, MM_PER_IN, Thickness, UnitSystem};
 use crate::model::scan::Scan;
 use crate::model::tank::Tank;
 use crate::model::warning::Shown;
@@ -273,6 +273,23 @@ pub fn read_scan(
                 &format!("is not positive, expected a distance in {tu} above 0"),
             ));
         }
+        // The least pitch in the tank's unit (unknown without a tank: not checked).
+        let least = match units {
+            Some(UnitSystem::Si) => MIN_SCAN_PITCH_MM,
+            Some(UnitSystem::Usc) => MIN_SCAN_PITCH_MM / MM_PER_IN,
+            None => 0.0,
+        };
+        if v < least {
+            return Err(invalid(
+                path,
+                &kl,
+                &format!(
+                    "is below {} {tu}, the least spacing a probe can be stepped at: a unit \
+                     mistake? expected the distance in {tu}, e.g. 50",
+                    round_for_message(least)
+                ),
+            ));
+        }
         Ok((kl, v))
     };
     let (_, row_pitch) = pitch("row_pitch")?;
@@ -455,11 +472,12 @@ pub fn read_scan(
                 path,
                 &bottom_line,
                 &format!(
-                    "puts the grid ({} rows at {row_pitch} {tu}, from {bottom} {lu} to {} {lu}) \
+                    "puts the grid ({} row{} at {row_pitch} {tu}, from {bottom} {lu} to {} {lu}) \
                      outside course {course}, which spans {low} {lu} to {high} {lu}; expected the \
                      elevation of the bottom row, with the whole grid within the course (split a \
                      scan that crosses a joint)",
                     scan.rows(),
+                    if scan.rows() == 1 { "" } else { "s" },
                     round_for_message(top),
                 ),
             ));

@@ -358,6 +358,12 @@ scan_case!(
     "key \"column_pitch\": \"0\" is not positive, expected a distance in mm above 0"
 );
 scan_case!(
+    pitch_in_metres,
+    HEADER.replace("row_pitch = 100", "row_pitch = 0.1") + GRID,
+    ":4:15",
+    "key \"row_pitch\": \"0.1\" is below 1 mm, the least spacing a probe can be stepped at: a unit mistake? expected the distance in mm, e.g. 50"
+);
+scan_case!(
     course_not_in_tank,
     HEADER.replace("course = 1", "course = 2") + GRID,
     ":1:12",
