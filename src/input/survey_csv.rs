@@ -632,7 +632,17 @@ impl ThinCheck {
             Location::line(path, origin.line),
             InputErrorKind::AllThin {
                 count: self.count,
-                first: format!("{} {}", number_text(thickness.0), units.thickness_unit()),
+                // As written in the file, and in the tank's unit when the column names
+                // another.
+                first: match suffix_system(suffix) {
+                    Some(file_units) if file_units != units => format!(
+                        "{} {} ({})",
+                        number_text(thickness.convert(units, file_units).0),
+                        file_units.thickness_unit(),
+                        Shown::thickness(thickness, units).significant()
+                    ),
+                    _ => format!("{} {}", number_text(thickness.0), units.thickness_unit()),
+                },
                 nominal: Shown::thickness(nominal, units).to_string(),
                 course,
                 hint: match suffix {
