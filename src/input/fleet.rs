@@ -1,12 +1,13 @@
 //! Finds the tank folders of a fleet: every folder below the given one that holds a
-//! tank.toml (the given folder itself included). A tank folder's own subfolders
-//! (surveys/, scans/) are not searched further; hidden folders (name starting with
-//! `.`) are skipped. Symbolic links are followed, and a loop is reported, not walked.
+//! tank.toml (the given folder itself included), a tank folder inside another one too
+//! (none is left out without a word). A tank folder's surveys/ and scans/ are not
+//! searched (their files are the tank's); hidden folders (name starting with `.`) are
+//! skipped. Symbolic links are followed, and a loop is reported, not walked.
 
 use std::path::{Path, PathBuf};
 
 use super::error::{InputError, InputErrorKind, Location};
-use super::tank_dir::TANK_FILE;
+use super::tank_dir::{SCAN_DIR, SURVEY_DIR, TANK_FILE};
 
 /// What the search found, in path order.
 #[derive(Debug, Default)]
@@ -59,13 +60,19 @@ pub fn find_tank_dirs(root: &Path) -> Result<FoundTanks, InputError> {
                 .file_name()
                 .to_str()
                 .is_some_and(|n| n.starts_with('.'));
-        if hidden {
+        // The survey and scan folders of a tank folder hold its files, not tanks.
+        let tank_files = entry.depth() > 0
+            && (entry.file_name() == SURVEY_DIR || entry.file_name() == SCAN_DIR)
+            && entry
+                .path()
+                .parent()
+                .is_some_and(|p| p.join(TANK_FILE).is_file());
+        if hidden || tank_files {
             walk.skip_current_dir();
             continue;
         }
         if entry.path().join(TANK_FILE).is_file() {
             found.tanks.push(entry.path().to_path_buf());
-            walk.skip_current_dir();
         }
     }
     if found.tanks.is_empty() && found.unreadable.is_empty() {

@@ -187,6 +187,37 @@ fn no_tank_folder() {
     );
 }
 
+/// A tank folder inside another tank folder is assessed too (nothing below the given
+/// folder is left out without a word); a tank's surveys/ and scans/ are not searched
+/// for tanks.
+#[test]
+fn tank_folder_inside_another_is_found() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    copy_sample("kestrel-t03", &dir.path().join("outer"), Some("OUTER"));
+    copy_sample(
+        "kestrel-t07",
+        &dir.path().join("outer/archive/inner"),
+        Some("INNER"),
+    );
+    // A folder holding tank.toml under surveys/ is the outer tank's business (its
+    // survey reader reports the folder as not read), not a tank of the fleet.
+    copy_sample(
+        "kestrel-t07",
+        &dir.path().join("outer/surveys/old"),
+        Some("HIDDEN"),
+    );
+    let shown = dir.path().display().to_string();
+    let fleet = json(&strake(["fleet", &shown, "--format", "json"]));
+    let mut ids: Vec<&str> = fleet["tanks"]
+        .as_array()
+        .expect("tanks")
+        .iter()
+        .map(|t| t["tank_id"].as_str().expect("id"))
+        .collect();
+    ids.sort_unstable();
+    assert_eq!(ids, ["INNER", "OUTER"]);
+}
+
 /// Same input, byte-identical output, whatever the number of worker threads and the
 /// order they finish in.
 #[test]
