@@ -173,7 +173,7 @@ fn plan(o: &mut String, fleet: &Fleet, units: Option<UnitSystem>) {
          the allowable liquid level now and at the next UT survey (the least over the \
          courses and scanned areas, at most the shell height), in bold where it is below \
          max fill, the operating maximum. Each tank id opens the tank's own report.</p>\n\
-         <table class=\"plan num\">\n<thead><tr><th>#</th><th>Tank</th><th>Next due</th>\
+         <div class=\"wide\">\n<table class=\"plan num\">\n<thead><tr><th>#</th><th>Tank</th><th>Next due</th>\
          <th>Next UT</th><th>Next external</th><th>Course</th><th>Life</th><th>Fill now</th>\
          <th>Fill at UT</th><th>Max fill</th><th>Status</th><th>Folder</th></tr>\n\
          <tr class=\"units\"><th></th><th></th><th></th><th></th><th></th><th></th><th>y</th>\
@@ -240,7 +240,7 @@ fn plan(o: &mut String, fleet: &Fleet, units: Option<UnitSystem>) {
             }
         }
     }
-    o.push_str("</tbody>\n</table>\n</section>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n</section>\n");
 }
 
 /// A path, escaped, that may break after each `/` (a long folder wraps at its parts).
@@ -422,6 +422,7 @@ table.plan { width: 100%; }
 table.plan td.tank a { color: var(--accent); font-weight: bold; }
 table.plan td.tank .name { display: block; font-size: 12px; color: var(--muted); white-space: normal; }
 td.path { overflow-wrap: anywhere; white-space: normal !important; color: var(--muted); font-size: 12.5px; }
+.wide { max-width: 100%; overflow-x: auto; }
 td.restricted { color: var(--act); font-weight: bold; }
 td.restricted-next { color: var(--watch); font-weight: bold; }
 tr.act td:first-child { box-shadow: inset 4px 0 var(--act); }
@@ -448,6 +449,7 @@ figcaption a { color: var(--accent); }
 @media print {
   body { font-size: 9.5pt; }
   header.masthead, main { max-width: none; padding: 0; }
+  .wide { overflow: visible; }
   nav.toc { display: none; }
   .tile, .badge, thead th, tr.error td, .caution, tr.act td:first-child, tr.watch td:first-child,
   tr.fit td:first-child { -webkit-print-color-adjust: exact; print-color-adjust: exact; }

@@ -498,7 +498,7 @@ fn survey_table(o: &mut String, a: &Assessment, f: &Fmt) {
     let tu = f.tu();
     let _ = writeln!(
         o,
-        "<table class=\"num\">\n<caption>Readings of each course at each survey: the basis \
+        "<div class=\"wide\">\n<table class=\"num\">\n<caption>Readings of each course at each survey: the basis \
          thickness is the {} reading</caption>\n<thead><tr><th>Course</th><th>Survey</th>\
          <th>Readings</th><th>Least</th><th>Mean</th><th>s</th><th>COV</th><th>Basis</th></tr>\n\
          <tr class=\"units\"><th></th><th></th><th></th><th>{tu}</th><th>{tu}</th><th>{tu}</th>\
@@ -533,7 +533,7 @@ fn survey_table(o: &mut String, a: &Assessment, f: &Fmt) {
             );
         }
     }
-    o.push_str("</tbody>\n</table>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n");
 }
 
 fn stress_number(x: f64, u: UnitSystem) -> String {
@@ -566,7 +566,7 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
     let _ = writeln!(
         o,
         "<section id=\"results\">\n<h2><span class=\"no\">3</span> Results by course</h2>\n\
-         <table class=\"num results\">\n<thead><tr><th>Course</th><th>Nominal</th><th>t_actual</th>\
+         <div class=\"wide\">\n<table class=\"num results\">\n<thead><tr><th>Course</th><th>Nominal</th><th>t_actual</th>\
          <th>t_min</th><th>Rate</th><th>Rate basis</th><th>Remaining life</th><th>Meets t_min</th>\
          <th>Allowable level now</th><th>… at next UT</th><th>UT interval</th><th>External \
          interval</th><th>Status</th></tr>\n<tr class=\"units\"><th></th><th>{tu}</th><th>{tu}</th>\
@@ -607,7 +607,7 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
             status_badge(k.map(|k| k.status))
         );
     }
-    o.push_str("</tbody>\n</table>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n");
     let shell = a.tank.shell_height();
     let _ = writeln!(
         o,
@@ -622,7 +622,7 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
     if !a.areas.is_empty() {
         let _ = writeln!(
             o,
-            "<table class=\"num\">\n<caption>Scanned local thin areas (API 653 4.3.2; the \
+            "<div class=\"wide\">\n<table class=\"num\">\n<caption>Scanned local thin areas (API 653 4.3.2; the \
              working is in section 5)</caption>\n<thead><tr><th>Scan</th><th>Course</th>\
              <th>Date</th><th>Rules at the operating level</th><th>Allowable level now</th>\
              <th>… at next UT</th></tr>\n<tr class=\"units\"><th></th><th></th><th></th><th></th>\
@@ -653,7 +653,7 @@ fn results(o: &mut String, a: &Assessment, v: &View) {
                 limit(x.max_fill_height_next.as_ref())
             );
         }
-        o.push_str("</tbody>\n</table>\n");
+        o.push_str("</tbody>\n</table>\n</div>\n");
     }
     let checks = plain(&shell_checks(a, v));
     if !checks.trim().is_empty() {
@@ -763,7 +763,7 @@ fn hot_spots(o: &mut String, a: &Assessment, v: &View) {
     }
     let _ = writeln!(
         o,
-        "<table class=\"num\">\n<thead><tr><th>Point</th><th>Course</th><th>Elevation</th>\
+        "<div class=\"wide\">\n<table class=\"num\">\n<thead><tr><th>Point</th><th>Course</th><th>Elevation</th>\
          <th>Azimuth</th><th>First reading</th><th>Last reading</th><th>Rate</th>\
          <th>Remaining life</th></tr>\n<tr class=\"units\"><th></th><th></th><th>{lu}</th>\
          <th>°</th><th>{tu}</th><th>{tu}</th><th>{ru}</th><th>y</th></tr></thead>\n<tbody>"
@@ -788,7 +788,7 @@ fn hot_spots(o: &mut String, a: &Assessment, v: &View) {
             life_text(p.remaining_life)
         );
     }
-    o.push_str("</tbody>\n</table>\n</section>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n</section>\n");
 }
 
 fn warnings(o: &mut String, a: &Assessment) {
@@ -1494,6 +1494,9 @@ table.kv th { text-align: left; font-weight: normal; color: var(--muted); paddin
 table.files { width: 100%; }
 table.files th { text-align: left; }
 td.path { word-break: break-all; }
+table.results { font-size: 13px; }
+table.results th, table.results td { padding: 3px 6px; }
+.wide { max-width: 100%; overflow-x: auto; }
 td.n { text-align: right; }
 .cols { display: flex; flex-wrap: wrap; gap: 0 28px; align-items: flex-start; }
 tr.governing td { background: #fff7e0; }
@@ -1537,13 +1540,14 @@ table.sign td.signature { height: 4em; }
 @media print {
   body { font-size: 10pt; }
   header.masthead, main { max-width: none; padding: 0; }
+  .wide { overflow: visible; }
   nav.toc { display: none; }
   .verdict, .badge, .standing, thead th, tr.governing td, .caution, .callout,
   table.design tr.short td {
     -webkit-print-color-adjust: exact; print-color-adjust: exact; }
   section { margin: 14px 0; }
   h2, h3 { break-after: avoid; page-break-after: avoid; }
-  table { font-size: 8.5pt; }
+  table, table.results { font-size: 8.5pt; }
   pre.working { font-size: 7.5pt; }
   thead { display: table-header-group; }
   tr, .verdict, dl.answers div, article.course-calc, .signatures, #sign-off, table.results,

@@ -153,7 +153,7 @@ fn area_rules_table(o: &mut String, x: &AreaAssessment, v: &View) {
     let t = |th: Thickness| n(v.thk(th), td);
     let _ = writeln!(
         o,
-        "<table class=\"num rules\">\n<caption>Rules at the operating level {}: measured ≥ \
+        "<div class=\"wide\">\n<table class=\"num rules\">\n<caption>Rules at the operating level {}: measured ≥ \
          fraction × local t_min at H + N × I (z: the window's lowest row for t1, the grid's \
          bottom row for t2 and the pits)</caption>\n<thead><tr><th>Rule</th><th>Where</th>\
          <th>z</th><th>H</th><th>Local t_min</th><th>Fraction</th><th>N × I</th>\
@@ -227,7 +227,7 @@ fn area_rules_table(o: &mut String, x: &AreaAssessment, v: &View) {
         t(sp.worst.map_or(Thickness(0.0), |w| w.length)),
         pass_badge(sp.pass)
     );
-    o.push_str("</tbody>\n</table>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n");
 }
 
 fn local_t_min_text(m: &LocalTminCalc, fill: f64, f: &Fmt) -> String {
@@ -619,7 +619,7 @@ pub fn extreme_values(o: &mut String, a: &Assessment, v: &View, charts: &[Chart]
     let t = |x: Thickness| n(v.thk(x), td);
     let _ = writeln!(
         o,
-        "<table class=\"num extreme\">\n<caption>Extreme-value estimate by course (latest \
+        "<div class=\"wide\">\n<table class=\"num extreme\">\n<caption>Extreme-value estimate by course (latest \
          survey of each course)</caption>\n<thead><tr><th>Course</th><th>Drops</th><th>T</th>\
          <th>y_T</th><th>Fit</th><th>u</th><th>a</th><th>x_T</th><th>Estimate</th>\
          <th>Least measured</th><th>t_min</th><th>r</th></tr>\n<tr class=\"units\"><th></th>\
@@ -658,7 +658,7 @@ pub fn extreme_values(o: &mut String, a: &Assessment, v: &View, charts: &[Chart]
             }
         }
     }
-    o.push_str("</tbody>\n</table>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n");
     let estimated: Vec<_> = a
         .courses
         .iter()
@@ -870,7 +870,7 @@ fn design_table(o: &mut String, d: &RequiredShell, v: &View) {
     };
     let _ = writeln!(
         o,
-        "<table class=\"num design\">\n<caption>Required thickness by course (the numbers of \
+        "<div class=\"wide\">\n<table class=\"num design\">\n<caption>Required thickness by course (the numbers of \
          <code>strake required</code>)</caption>\n<thead><tr><th>Course</th><th>CA</th>\
          <th>S_d</th><th>S_t</th><th>One-foot design</th><th>One-foot test</th><th>VDP \
          design</th><th>VDP test</th><th>Minimum nominal</th><th>Required, one-foot</th>\
@@ -903,7 +903,7 @@ fn design_table(o: &mut String, d: &RequiredShell, v: &View) {
             t(c.difference())
         );
     }
-    o.push_str("</tbody>\n</table>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n");
     o.push_str(
         "<p class=\"note\">design = the product at its SG with S_d, plus CA; test = water \
          with S_t, no CA; required = the largest of design, test and the minimum nominal \
@@ -935,7 +935,7 @@ fn design_points_table(o: &mut String, d: &RequiredShell, v: &View) {
     };
     let _ = writeln!(
         o,
-        "<table class=\"num design-points\">\n<caption>Design point x of the \
+        "<div class=\"wide\">\n<table class=\"num design-points\">\n<caption>Design point x of the \
          variable-design-point method (above the bottom of the course; the second course's \
          is that of t2a)</caption>\n<thead><tr><th>Course</th><th>Bottom z</th>\
          <th>Height</th><th>x, design</th><th>Steps, design</th><th>x, test</th>\
@@ -955,7 +955,7 @@ fn design_points_table(o: &mut String, d: &RequiredShell, v: &View) {
             steps(&c.vdp_test)
         );
     }
-    o.push_str("</tbody>\n</table>\n");
+    o.push_str("</tbody>\n</table>\n</div>\n");
 }
 
 fn upper_steps(o: &mut String, u: &UpperCalc, f: &Fmt) {
