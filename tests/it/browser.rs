@@ -183,3 +183,85 @@ fn fleet_page_renders_in_a_browser() {
         "remaining-life chart vermillion pixels {vermillion}"
     );
 }
+
+/// Every sample report and the fleet page fit the width of a browser window (800 and
+/// 1,000 pixels): nothing but the content of a `.wide` box (which scrolls on its own)
+/// reaches past the right edge of the main column, and the page does not scroll
+/// sideways. Measured by the browser itself: a copy of each page gets a script that
+/// writes what it finds into an attribute, read back from Chromium's `--dump-dom`.
+#[test]
+fn pages_fit_the_window_width() {
+    let Some(bin) = chromium() else {
+        assert!(
+            std::env::var("CI").as_deref() != Ok("true"),
+            "chromium is not installed; under CI=true the browser test must run"
+        );
+        eprintln!("note: chromium not found on PATH: width test skipped");
+        return;
+    };
+    const PROBE: &str = "<script>const m = document.querySelector('main')\
+        .getBoundingClientRect().right; const over = [...document.querySelectorAll('main *')]\
+        .filter(e => e.getBoundingClientRect().right > m + 1 && !e.closest('.wide'))\
+        .slice(0, 5).map(e => e.tagName + '.' + e.className); document.body.setAttribute(\
+        'data-fit', over.join(' ') + '|' + (document.documentElement.scrollWidth - \
+        document.documentElement.clientWidth));</script></body>";
+    let tmp = tempfile::tempdir().expect("temp");
+    let mut pages = Vec::new();
+    for (sample, _) in SAMPLES {
+        let out = tmp.path().join(sample);
+        generate(sample, &out, &[]);
+        pages.push((sample.to_string(), out.join("index.html")));
+    }
+    let fleet = tmp.path().join("fleet");
+    let run = crate::support::strake([
+        "fleet",
+        "sample-inspections",
+        "--out",
+        fleet.to_str().expect("utf-8"),
+    ]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    pages.push(("fleet page".to_string(), fleet.join("index.html")));
+    for (name, page) in pages {
+        let html = std::fs::read_to_string(&page).expect("page");
+        assert!(
+            !html.contains("<script"),
+            "{name}: the page itself has no script"
+        );
+        let probe = page.with_file_name("probe.html");
+        std::fs::write(&probe, html.replace("</body>", PROBE)).expect("probe page");
+        for width in [1000, 800] {
+            let profile = tmp.path().join(format!("profile-{width}"));
+            let output = Command::new(&bin)
+                .args([
+                    "--headless",
+                    "--no-sandbox",
+                    "--disable-gpu",
+                    "--no-first-run",
+                    "--disable-background-networking",
+                    "--disable-component-update",
+                    "--disable-sync",
+                    "--dump-dom",
+                ])
+                .arg(format!("--user-data-dir={}", profile.display()))
+                .arg(format!("--window-size={width},1000"))
+                .arg(format!("file://{}", probe.display()))
+                .output()
+                .expect("chromium runs");
+            let dom = String::from_utf8_lossy(&output.stdout);
+            let fit = dom
+                .split("data-fit=\"")
+                .nth(1)
+                .and_then(|rest| rest.split('"').next())
+                .unwrap_or_else(|| panic!("{name} at {width} px: no measure in the DOM"));
+            let (over, sideways) = fit.split_once('|').expect("two parts");
+            assert_eq!(
+                over, "",
+                "{name} at {width} px: past the main column: {over}"
+            );
+            assert_eq!(
+                sideways, "0",
+                "{name} at {width} px: the page scrolls sideways"
+            );
+        }
+    }
+}
