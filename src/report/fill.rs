@@ -64,12 +64,16 @@ pub fn render_text(a: &Assessment, scenarios: &[FillScenario], years: f64, v: &V
         );
     }
     o.push('\n');
-    let _ = writeln!(
-        o,
-        "Operating maximum in tank.toml: {}; shell height {}.",
-        v.len_text(a.tank.max_fill_height),
-        v.len_text(a.tank.shell_height())
-    );
+    o.push_str(&wrap(
+        &format!(
+            "Operating maximum in tank.toml: {}; shell height {}. A level above the shell \
+             height means the shell does not limit: the tank may be filled to its top.",
+            v.len_text(a.tank.max_fill_height),
+            v.len_text(a.tank.shell_height())
+        ),
+        WRAP,
+        "",
+    ));
     let mut scans: Vec<usize> = scenarios
         .iter()
         .flat_map(|s| [s.now_area, s.later_area])
