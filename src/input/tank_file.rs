@@ -365,6 +365,13 @@ impl Doc<'_> {
             let at = at.lines().next().unwrap_or("");
             if !at.is_empty() {
                 message = format!("{message} at \"{}\"", echo(at));
+                // Courses written as single tables: the second [course] repeats the first.
+                if at == "course" && message.starts_with("duplicate key") {
+                    message.push_str(
+                        ": write each course as a [[course]] table (double brackets), \
+                         bottom course first",
+                    );
+                }
             } else if let Some(line) = self.line_at(span.start).filter(|l| !l.is_empty()) {
                 message = format!("{message}, in \"{}\"", echo(line));
             }
