@@ -95,14 +95,7 @@ fn next_month(m: NaiveDate) -> NaiveDate {
 /// - each assessed tank's governing course and remaining life, least first, with the
 ///   remaining life under which a course is to be monitored (life.rs).
 pub fn fleet_series(fleet: &Fleet) -> FleetSeries {
-    let tanks: Vec<&FleetTank> = fleet
-        .entries
-        .iter()
-        .filter_map(|e| match e {
-            FleetEntry::Tank(t) => Some(t.as_ref()),
-            FleetEntry::Failed { .. } => None,
-        })
-        .collect();
+    let tanks: Vec<&FleetTank> = fleet.tanks().collect();
     let dues: Vec<(NaiveDate, bool)> = tanks
         .iter()
         .flat_map(|t| {

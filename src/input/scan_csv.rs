@@ -23,7 +23,7 @@ use super::error::echo;
 use super::error::{InputError, InputErrorKind, Location, nearest};
 use super::survey_csv::{BOM, COMMA_HINT, NumberText, example_thickness, read_number};
 use crate::calc::constants::{MIN_SCAN_PITCH_MM, UNIT_MISTAKE_FACTOR};
-use crate::calc::units::{Length, MM_PER_IN, Thickness, UnitSystem};
+use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::scan::Scan;
 use crate::model::tank::Tank;
 use crate::model::warning::Shown;
@@ -274,11 +274,9 @@ pub fn read_scan(
             ));
         }
         // The least pitch in the tank's unit (unknown without a tank: not checked).
-        let least = match units {
-            Some(UnitSystem::Si) => MIN_SCAN_PITCH_MM,
-            Some(UnitSystem::Usc) => MIN_SCAN_PITCH_MM / MM_PER_IN,
-            None => 0.0,
-        };
+        let least = units.map_or(0.0, |u| {
+            Thickness(MIN_SCAN_PITCH_MM).convert(UnitSystem::Si, u).0
+        });
         if v < least {
             return Err(invalid(
                 path,

@@ -117,12 +117,16 @@ pub struct Fleet {
 }
 
 impl Fleet {
+    /// The tanks assessed, in the fleet's order (failed folders left out).
+    pub fn tanks(&self) -> impl Iterator<Item = &FleetTank> {
+        self.entries.iter().filter_map(|e| match e {
+            FleetEntry::Tank(t) => Some(t.as_ref()),
+            FleetEntry::Failed { .. } => None,
+        })
+    }
     /// Number of tanks assessed.
     pub fn assessed(&self) -> usize {
-        self.entries
-            .iter()
-            .filter(|e| matches!(e, FleetEntry::Tank(_)))
-            .count()
+        self.tanks().count()
     }
     /// Number of folders that failed.
     pub fn failed(&self) -> usize {

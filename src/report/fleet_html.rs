@@ -48,14 +48,7 @@ pub fn render(
          <title>Fleet plan {root}</title>\n<style>\n{STYLE}</style>\n</head>\n<body>\n",
         env!("CARGO_PKG_VERSION"),
     );
-    let tanks: Vec<&FleetTank> = fleet
-        .entries
-        .iter()
-        .filter_map(|e| match e {
-            FleetEntry::Tank(t) => Some(t.as_ref()),
-            FleetEntry::Failed { .. } => None,
-        })
-        .collect();
+    let tanks: Vec<&FleetTank> = fleet.tanks().collect();
     let restricted: Vec<&FleetTank> = tanks
         .iter()
         .copied()

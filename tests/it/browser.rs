@@ -16,6 +16,25 @@ fn chromium() -> Option<PathBuf> {
         .find(|p| p.is_file())
 }
 
+/// Headless Chromium with a profile of its own and nothing that reaches the network
+/// (the flags the issue names, and the background services off); the caller adds
+/// what to do and the page.
+fn headless(bin: &Path, profile: &Path) -> Command {
+    let mut c = Command::new(bin);
+    c.args([
+        "--headless",
+        "--no-sandbox",
+        "--disable-gpu",
+        "--disable-quic",
+        "--no-first-run",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--disable-sync",
+    ])
+    .arg(format!("--user-data-dir={}", profile.display()));
+    c
+}
+
 /// RGB pixels of a PNG screenshot (png crate).
 fn pixels(png_file: &Path) -> (u32, u32, Vec<u8>) {
     let bytes = std::fs::read(png_file).expect("screenshot written");
@@ -65,19 +84,8 @@ fn sample_reports_render_in_a_browser() {
         }
         let shot = tmp.path().join("shot.png");
         let profile = tmp.path().join("profile");
-        let status = Command::new(&bin)
-            .args([
-                "--headless",
-                "--no-sandbox",
-                "--disable-gpu",
-                "--disable-quic",
-                "--no-first-run",
-                "--disable-background-networking",
-                "--disable-component-update",
-                "--disable-sync",
-                "--hide-scrollbars",
-            ])
-            .arg(format!("--user-data-dir={}", profile.display()))
+        let status = headless(&bin, &profile)
+            .arg("--hide-scrollbars")
             .arg(format!("--screenshot={}", shot.display()))
             .arg("--window-size=1100,12000")
             .arg(format!("file://{}", out.join("index.html").display()))
@@ -142,19 +150,8 @@ fn fleet_page_renders_in_a_browser() {
     }
     let shot = tmp.path().join("shot.png");
     let profile = tmp.path().join("profile");
-    let status = Command::new(&bin)
-        .args([
-            "--headless",
-            "--no-sandbox",
-            "--disable-gpu",
-            "--disable-quic",
-            "--no-first-run",
-            "--disable-background-networking",
-            "--disable-component-update",
-            "--disable-sync",
-            "--hide-scrollbars",
-        ])
-        .arg(format!("--user-data-dir={}", profile.display()))
+    let status = headless(&bin, &profile)
+        .arg("--hide-scrollbars")
         .arg(format!("--screenshot={}", shot.display()))
         .arg("--window-size=1200,2600")
         .arg(format!("file://{}", out.join("index.html").display()))
@@ -231,18 +228,8 @@ fn pages_fit_the_window_width() {
         std::fs::write(&probe, html.replace("</body>", PROBE)).expect("probe page");
         for width in [1000, 800] {
             let profile = tmp.path().join(format!("profile-{width}"));
-            let output = Command::new(&bin)
-                .args([
-                    "--headless",
-                    "--no-sandbox",
-                    "--disable-gpu",
-                    "--no-first-run",
-                    "--disable-background-networking",
-                    "--disable-component-update",
-                    "--disable-sync",
-                    "--dump-dom",
-                ])
-                .arg(format!("--user-data-dir={}", profile.display()))
+            let output = headless(&bin, &profile)
+                .arg("--dump-dom")
                 .arg(format!("--window-size={width},1000"))
                 .arg(format!("file://{}", probe.display()))
                 .output()
