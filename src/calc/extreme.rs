@@ -187,12 +187,24 @@ pub fn plot_correlation(points: &[PlotPoint]) -> Option<f64> {
 /// The readings of one course at one survey, grouped by drop (azimuth) while they
 /// stream past: per azimuth the count and the least reading; readings without an
 /// azimuth are only counted. Memory grows with the number of drops, not readings.
-#[derive(Debug, Clone, Default, PartialEq)]
+#[derive(Debug, Clone, Default)]
 pub struct Drops {
-    /// Azimuth bits (0 to 360 degrees, 360 folded to 0) -> (readings, least).
-    by_azimuth: std::collections::BTreeMap<u64, (usize, f64)>,
+    /// Per azimuth, in increasing order: its bits (0 to 360 degrees, 360 folded to
+    /// 0), readings and least reading.
+    by_azimuth: Vec<(u64, usize, f64)>,
+    /// Where the last reading went: survey files list a drop's readings together, or
+    /// go round the drops in turn, so the next reading's drop is nearly always this
+    /// one or the one after it.
+    last: usize,
     /// Readings without an azimuth.
     without: usize,
+}
+
+/// The same drops (where the last reading went is no part of the value).
+impl PartialEq for Drops {
+    fn eq(&self, other: &Self) -> bool {
+        self.by_azimuth == other.by_azimuth && self.without == other.without
+    }
 }
 
 impl Drops {
@@ -203,19 +215,30 @@ impl Drops {
             Some(a) => {
                 // Non-negative finite degrees: their bit patterns sort as the numbers do;
                 // + 0.0 turns -0.0 into 0.0.
-                let a = if a >= 360.0 { a - 360.0 } else { a } + 0.0;
-                let e = self
-                    .by_azimuth
-                    .entry(a.to_bits())
-                    .or_insert((0, f64::INFINITY));
-                e.0 += 1;
-                e.1 = e.1.min(thickness.0);
+                let bits = (if a >= 360.0 { a - 360.0 } else { a } + 0.0).to_bits();
+                let n = self.by_azimuth.len();
+                let next = if self.last + 1 < n { self.last + 1 } else { 0 };
+                let i = match self.by_azimuth.get(self.last) {
+                    Some(d) if d.0 == bits => self.last,
+                    _ if n > 0 && self.by_azimuth[next].0 == bits => next,
+                    _ => match self.by_azimuth.binary_search_by_key(&bits, |d| d.0) {
+                        Ok(i) => i,
+                        Err(i) => {
+                            self.by_azimuth.insert(i, (bits, 0, f64::INFINITY));
+                            i
+                        }
+                    },
+                };
+                let drop = &mut self.by_azimuth[i];
+                drop.1 += 1;
+                drop.2 = drop.2.min(thickness.0);
+                self.last = i;
             }
         }
     }
     /// Readings added.
     pub fn len(&self) -> usize {
-        self.without + self.by_azimuth.values().map(|v| v.0).sum::<usize>()
+        self.without + self.by_azimuth.iter().map(|d| d.1).sum::<usize>()
     }
     /// No reading added.
     pub fn is_empty(&self) -> bool {
@@ -369,7 +392,7 @@ pub fn extreme_value(
     let blocks: Vec<Block> = readings
         .by_azimuth
         .iter()
-        .map(|(&bits, &(count, least))| Block {
+        .map(|&(bits, count, least)| Block {
             azimuth: f64::from_bits(bits),
             readings: count,
             least: Thickness(least),

@@ -30,7 +30,7 @@ use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_t
 use super::limits::{ALL_THIN_FACTOR, EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
-use crate::model::reading::{Origin, PointNames, PointRef, ReadingRef, ReadingSink};
+use crate::model::reading::{Origin, PointKey, PointNames, PointRef, ReadingRef, ReadingSink};
 use crate::model::warning::Shown;
 
 /// Every column name the reader knows.
@@ -141,6 +141,26 @@ struct Columns {
     names: Vec<String>,
     /// Columns with an empty header name: their cells must be empty.
     unnamed: Vec<usize>,
+}
+
+impl Columns {
+    /// Per column, the slot of its text in [`RowParser::quick`].
+    fn roles(&self) -> Vec<Option<u8>> {
+        let mut roles = vec![None; self.names.len()];
+        let mut put = |column: Option<usize>, slot: u8| {
+            if let Some(role) = column.and_then(|c| roles.get_mut(c)) {
+                *role = Some(slot);
+            }
+        };
+        put(Some(self.date), 0);
+        put(Some(self.course), 1);
+        put(Some(self.thickness.0), 2);
+        put(self.point, 3);
+        put(self.elevation.map(|e| e.0), 4);
+        put(self.azimuth, 5);
+        put(self.note, 6);
+        roles
+    }
 }
 
 /// The UTF-8 byte-order mark some spreadsheet programs write.
@@ -535,6 +555,7 @@ fn read_rows(
         cols: &cols,
         delimiter,
         date_cache: None,
+        roles: cols.roles(),
     };
     let mut rows = 0usize;
     let mut thin = ThinCheck::default();
@@ -859,6 +880,17 @@ pub fn read_number(s: &str, delimiter: u8) -> NumberText {
     }
 }
 
+/// The fields of a row read by [`RowParser::quick`].
+struct QuickRow<'r> {
+    date: NaiveDate,
+    course: u32,
+    thickness: Thickness,
+    point: Option<PointKey>,
+    elevation: Option<Length>,
+    azimuth: Option<f64>,
+    note: Option<&'r str>,
+}
+
 struct RowParser<'a> {
     path: &'a str,
     ctx: &'a SurveyContext,
@@ -868,6 +900,9 @@ struct RowParser<'a> {
     /// (Every valid date text is ten bytes, YYYY-MM-DD: kept as an array, compared
     /// without a call.)
     date_cache: Option<([u8; 10], NaiveDate)>,
+    /// Per column, where [`Self::quick`] puts its text: 0 date, 1 course, 2 thickness,
+    /// 3 point, 4 elevation, 5 azimuth, 6 note; None for an unnamed column.
+    roles: Vec<Option<u8>>,
 }
 
 impl RowParser<'_> {
@@ -975,6 +1010,9 @@ impl RowParser<'_> {
         }
     }
 
+    /// One row: the common row through [`Self::quick`], anything else (and every
+    /// error) through [`Self::full`].
+    #[inline(always)]
     fn parse<'r>(
         &mut self,
         record: &'r csv::ByteRecord,
@@ -982,7 +1020,152 @@ impl RowParser<'_> {
         file_index: u32,
         points: &'r mut PointNames,
     ) -> Result<ReadingRef<'r>, InputError> {
-        let row = &Row::new(record);
+        match self.quick(record, points) {
+            Some(q) => Ok(ReadingRef {
+                date: q.date,
+                course: q.course,
+                thickness: q.thickness,
+                point: q.point.and_then(|key| {
+                    Some(PointRef {
+                        key,
+                        id: points.name(key)?,
+                    })
+                }),
+                elevation: q.elevation,
+                azimuth: q.azimuth,
+                note: q.note,
+                origin: Origin {
+                    file: file_index,
+                    line,
+                },
+            }),
+            None => self.full(&Row::new(record), line, file_index, points),
+        }
+    }
+
+    /// The common row, read with no message at hand: every field in its plain form
+    /// (the date as the row before, one or two digits for the course, plain decimals,
+    /// a point id no longer than allowed) and within its bounds. None for anything
+    /// else, which [`Self::full`] then reads, with its messages: the two agree on
+    /// every row this accepts (the same conversions, the same checks in the same
+    /// order). Nothing is changed before every check has passed; the point is looked
+    /// up last.
+    #[inline(always)]
+    fn quick<'r>(
+        &self,
+        record: &'r csv::ByteRecord,
+        points: &mut PointNames,
+    ) -> Option<QuickRow<'r>> {
+        let ctx = self.ctx;
+        let cols = self.cols;
+        // The fields, taken in one pass over the record by what their column holds.
+        let mut text: [&[u8]; 7] = [&[]; 7];
+        for (field, role) in record.iter().zip(&self.roles) {
+            if let (Some(a), Some(z)) = (field.first(), field.last())
+                && (a.is_ascii_whitespace() || z.is_ascii_whitespace())
+            {
+                return None;
+            }
+            match role {
+                Some(slot) => text[*slot as usize] = field,
+                None if field.is_empty() => {}
+                None => return None,
+            }
+        }
+        let [
+            date_text,
+            course_text,
+            thickness_text,
+            point_text,
+            elevation_text,
+            azimuth_text,
+            note_text,
+        ] = text;
+        let date = match &self.date_cache {
+            // (Compared as arrays: no call.)
+            Some((cached, date))
+                if date_text.len() == 10 && date_text.first_chunk() == Some(cached) =>
+            {
+                *date
+            }
+            _ => return None,
+        };
+        let course: u32 = match course_text {
+            [d @ b'1'..=b'9'] => u32::from(d - b'0'),
+            [a @ b'1'..=b'9', b @ b'0'..=b'9'] => u32::from(a - b'0') * 10 + u32::from(b - b'0'),
+            _ => return None,
+        };
+        let n_courses = ctx.nominal.len() as u32;
+        if n_courses > 0 && course > n_courses {
+            return None;
+        }
+        let raw = plain_decimal(thickness_text)?;
+        if raw <= 0.0 {
+            return None;
+        }
+        let thickness = convert_thickness(raw, cols.thickness.1, ctx.units);
+        if let (Some(_), Some(nominal)) = (ctx.units, ctx.nominal.get(course as usize - 1))
+            && thickness.0 > UNIT_MISTAKE_FACTOR * nominal.0
+        {
+            return None;
+        }
+        let elevation = match cols.elevation {
+            Some((_, suffix)) => match elevation_text {
+                [] => None,
+                text => {
+                    let v = plain_decimal(text)?;
+                    if v < 0.0 {
+                        return None;
+                    }
+                    let e = convert_length(v, suffix, ctx.units);
+                    if let (Some(_), Some(shell)) = (ctx.units, ctx.shell_height)
+                        && e.0 > shell.0 * 1.0001
+                    {
+                        return None;
+                    }
+                    Some(e)
+                }
+            },
+            None => None,
+        };
+        let azimuth = match azimuth_text {
+            [] => None,
+            text => {
+                let a = plain_decimal(text)?;
+                if !(0.0..=360.0).contains(&a) {
+                    return None;
+                }
+                Some(a)
+            }
+        };
+        let note = match note_text {
+            [] => None,
+            text => Some(std::str::from_utf8(text).ok()?),
+        };
+        let point = match point_text {
+            [] => None,
+            // (A text of at most that many bytes has at most that many characters.)
+            raw if raw.len() <= MAX_POINT_CHARS => Some(points.key_of_bytes(raw).ok()?),
+            _ => return None,
+        };
+        Some(QuickRow {
+            date,
+            course,
+            thickness,
+            point,
+            elevation,
+            azimuth,
+            note,
+        })
+    }
+
+    fn full<'r>(
+        &mut self,
+        row: &Row<'r>,
+        line: u64,
+        file_index: u32,
+        points: &'r mut PointNames,
+    ) -> Result<ReadingRef<'r>, InputError> {
         let ctx = self.ctx;
         let cols = self.cols;
         let date = self.date(row, line)?;

@@ -165,10 +165,12 @@ pub struct PointNames {
     by_hash: rustc_hash::FxHashMap<u64, u32>,
     /// Per key: the key given before it with the same hash, or [`NO_KEY`].
     same_hash: Vec<u32>,
-    /// Every id, one after the other; `ends[k]` is where id `k` ends.
+    /// Every id, one after the other.
     text: String,
-    ends: Vec<usize>,
-    previous: Option<u32>,
+    /// Per key: where its id starts and ends in `text`.
+    spans: Vec<(usize, usize)>,
+    /// The key after the one last asked for: the first guess for the next id.
+    next: usize,
 }
 
 /// No key (the end of a hash chain).
@@ -199,68 +201,68 @@ impl PointNames {
     /// The key of `id`, assigning the next one on first sight.
     pub fn key(&mut self, id: &str) -> PointKey {
         match self.find(id.as_bytes()) {
-            Some(k) => k,
+            Some(k) => PointKey(k as u32),
             None => self.insert(id),
         }
     }
     /// The key of the id whose bytes are `id`, assigning the next one on first sight;
     /// an error when `id` is new and not UTF-8 (nothing is assigned then).
+    #[inline]
     pub fn key_of_bytes(&mut self, id: &[u8]) -> Result<PointKey, std::str::Utf8Error> {
         match self.find(id) {
-            Some(k) => Ok(k),
+            Some(k) => Ok(PointKey(k as u32)),
             None => Ok(self.insert(std::str::from_utf8(id)?)),
         }
     }
     /// The key of a known id: the one after the previous key first, then the map.
     #[inline]
-    fn find(&mut self, id: &[u8]) -> Option<PointKey> {
-        let guess = self.previous.map_or(0, |p| p + 1);
-        let key = match self.bytes(guess) {
-            Some(name) if same_bytes(name, id) => guess,
-            _ => {
-                let mut k = *self.by_hash.get(&id_hash(id))?;
-                while self.bytes(k)? != id {
-                    k = *self.same_hash.get(k as usize)?;
-                }
-                k
-            }
+    fn find(&mut self, id: &[u8]) -> Option<usize> {
+        let guess = self.next;
+        let key = match self.spans.get(guess) {
+            Some(&(start, end)) if same_bytes(&self.text.as_bytes()[start..end], id) => guess,
+            _ => self.look_up(id)?,
         };
-        self.previous = Some(key);
-        Some(PointKey(key))
+        self.next = key + 1;
+        Some(key)
+    }
+    /// The key of a known id, from the map.
+    fn look_up(&self, id: &[u8]) -> Option<usize> {
+        let mut k = *self.by_hash.get(&id_hash(id))? as usize;
+        while self.bytes(k)? != id {
+            k = *self.same_hash.get(k)? as usize;
+        }
+        Some(k)
     }
     /// A new id's key.
     fn insert(&mut self, id: &str) -> PointKey {
-        let k = self.ends.len() as u32;
+        let k = self.spans.len();
+        let start = self.text.len();
         self.text.push_str(id);
-        self.ends.push(self.text.len());
-        let before = self.by_hash.insert(id_hash(id.as_bytes()), k);
+        self.spans.push((start, self.text.len()));
+        let before = self.by_hash.insert(id_hash(id.as_bytes()), k as u32);
         self.same_hash.push(before.unwrap_or(NO_KEY));
-        self.previous = Some(k);
-        PointKey(k)
+        self.next = k + 1;
+        PointKey(k as u32)
     }
     /// The bytes of id `k`.
     #[inline]
-    fn bytes(&self, k: u32) -> Option<&[u8]> {
-        let k = k as usize;
-        let end = *self.ends.get(k)?;
-        let start = if k == 0 { 0 } else { self.ends[k - 1] };
+    fn bytes(&self, k: usize) -> Option<&[u8]> {
+        let &(start, end) = self.spans.get(k)?;
         self.text.as_bytes().get(start..end)
     }
     /// The text of a key given out by this interner.
     #[inline]
     pub fn name(&self, key: PointKey) -> Option<&str> {
-        let k = key.0 as usize;
-        let end = *self.ends.get(k)?;
-        let start = if k == 0 { 0 } else { self.ends[k - 1] };
+        let &(start, end) = self.spans.get(key.0 as usize)?;
         self.text.get(start..end)
     }
     /// Number of distinct ids seen.
     pub fn len(&self) -> usize {
-        self.ends.len()
+        self.spans.len()
     }
     /// True when no id has been seen.
     pub fn is_empty(&self) -> bool {
-        self.ends.is_empty()
+        self.spans.is_empty()
     }
 }
 
