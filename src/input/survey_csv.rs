@@ -1595,4 +1595,154 @@ mod tests {
             agrees(&text);
         }
     }
+    /// The quick path against the full reader (the reference, which gives every
+    /// message): on every row the quick path takes, both give the same reading, bit
+    /// for bit, and the same point key. Rows are drawn from field texts that are plain,
+    /// padded, out of bounds or in other forms; columns with and without unit
+    /// suffixes, for a tank and without one.
+    mod quick_agrees_with_full {
+        use super::super::*;
+        use proptest::prelude::*;
+
+        const FIELDS: [&[&str]; 7] = [
+            &["2020-05-01", "2020-05-02", " 2020-05-01", "2020-5-1", ""],
+            &["1", "2", "3", "5", "10", "01", "0", " 2", "", "x", "99"],
+            &[
+                "12.4", "0.5", "0", "-1", "1e1", "12,4", "  9.9", "80", "1.", ".5", "", "0.0001",
+            ],
+            &[
+                "D1-C1-L",
+                "D2-C1-M",
+                " P",
+                "",
+                "\u{c9}3",
+                "abcdefghijklmnopqrstuvwxyz0123456789abcdefghij",
+            ],
+            &["0.5", "2.4", "-0.0", "-1", "30", "", "1e0", " 1.2"],
+            &["0", "45", "360", "361", "-0", "", "12.5"],
+            &["", "tape", "note with text", " x "],
+        ];
+
+        /// Which of [`FIELDS`] each known column takes its text from.
+        const SOURCE: [usize; 11] = [0, 1, 2, 2, 2, 3, 4, 4, 4, 5, 6];
+
+        fn header(suffixed: bool, with: [bool; 4]) -> Vec<&'static str> {
+            let thickness = if suffixed {
+                "thickness_mm"
+            } else {
+                "thickness"
+            };
+            let elevation = if suffixed { "elevation_m" } else { "elevation" };
+            let mut names = vec!["date", "course", thickness];
+            for (on, name) in with.iter().zip(["point", elevation, "azimuth", "note"]) {
+                if *on {
+                    names.push(name);
+                }
+            }
+            names
+        }
+
+        fn context(for_tank: bool) -> SurveyContext {
+            SurveyContext {
+                units: for_tank.then_some(UnitSystem::Usc),
+                nominal: if for_tank {
+                    vec![Thickness(0.5), Thickness(0.375), Thickness(0.25)]
+                } else {
+                    vec![]
+                },
+                shell_height: for_tank.then_some(Length(24.0)),
+                in_service_since: None,
+                today: NaiveDate::from_ymd_opt(2026, 1, 1).unwrap(),
+            }
+        }
+
+        /// Reads `rows` with both paths; returns how many the quick path took.
+        fn compare(ctx: &SurveyContext, names: &[&str], rows: &[Vec<&str>]) -> usize {
+            let head = csv::ByteRecord::from(names.to_vec());
+            let cols = super::super::header("f.csv", 1, &head).unwrap();
+            let mut parser = RowParser {
+                path: "f.csv",
+                ctx,
+                cols: &cols,
+                delimiter: b',',
+                date_cache: None,
+                roles: cols.roles(),
+            };
+            let mut quick_names = PointNames::default();
+            let mut full_names = PointNames::default();
+            let mut taken = 0;
+            for (n, row) in rows.iter().enumerate() {
+                let record = csv::ByteRecord::from(row.clone());
+                let quick = parser.quick(&record, &mut quick_names);
+                let full = parser.full(&Row::new(&record), n as u64 + 2, 0, &mut full_names);
+                match (quick, full) {
+                    (Some(q), Ok(full)) => {
+                        taken += 1;
+                        assert_eq!(q.date, full.date, "{row:?}");
+                        assert_eq!(q.course, full.course, "{row:?}");
+                        assert_eq!(q.thickness.0.to_bits(), full.thickness.0.to_bits());
+                        let bits = |l: Option<Length>| l.map(|l| l.0.to_bits());
+                        assert_eq!(bits(q.elevation), bits(full.elevation), "{row:?}");
+                        let bits = |a: Option<f64>| a.map(f64::to_bits);
+                        assert_eq!(bits(q.azimuth), bits(full.azimuth), "{row:?}");
+                        assert_eq!(q.note, full.note, "{row:?}");
+                        assert_eq!(q.point, full.point.map(|p| p.key), "{row:?}");
+                    }
+                    (Some(_), Err(e)) => panic!("quick took {row:?}, the full reader says {e}"),
+                    // Left to the full reader, which interns the point alone: keep the
+                    // two interners in step.
+                    (None, Ok(full)) => {
+                        if let Some(p) = full.point {
+                            quick_names.key(p.id);
+                        }
+                    }
+                    (None, Err(_)) => {}
+                }
+            }
+            taken
+        }
+
+        /// The plain rows of a survey are taken by the quick path (so the property
+        /// below compares something), the first of each date by the full reader.
+        #[test]
+        fn plain_rows_take_the_quick_path() {
+            let names = header(true, [true; 4]);
+            let rows: Vec<Vec<&str>> = [
+                ["2020-05-01", "1", "12.4", "D1-C1-L", "0.5", "0", ""],
+                ["2020-05-01", "2", "9.5", "D2-C1-M", "2.4", "45", "tape"],
+                ["2020-05-01", "3", "6.1", "D1-C1-L", "", "360", ""],
+            ]
+            .iter()
+            .map(|r| r.to_vec())
+            .collect();
+            assert_eq!(compare(&context(true), &names, &rows), 2);
+            assert_eq!(compare(&context(false), &names, &rows), 2);
+        }
+
+        proptest! {
+            #[test]
+            fn on_drawn_rows(
+                suffixed in any::<bool>(),
+                for_tank in any::<bool>(),
+                with in any::<[bool; 4]>(),
+                picks in proptest::collection::vec(any::<[prop::sample::Index; 7]>(), 1..12),
+            ) {
+                let names = header(suffixed, with);
+                let rows: Vec<Vec<&str>> = picks
+                    .iter()
+                    .map(|pick| {
+                        names
+                            .iter()
+                            .map(|name| {
+                                let k = KNOWN_COLUMNS.iter().position(|c| c == name).unwrap();
+                                let source = SOURCE[k];
+                                *pick[source].get(FIELDS[source])
+                            })
+                            .collect()
+                    })
+                    .collect();
+                compare(&context(for_tank), &names, &rows);
+            }
+        }
+    }
 }
