@@ -61,12 +61,13 @@ pub fn find_tank_dirs(root: &Path) -> Result<FoundTanks, InputError> {
                 .to_str()
                 .is_some_and(|n| n.starts_with('.'));
         // The survey and scan folders of a tank folder hold its files, not tanks.
+        // (The walk gives a folder before what is in it: the tank folder found last is
+        // most often the parent, and needs no second look.)
         let tank_files = entry.depth() > 0
             && (entry.file_name() == SURVEY_DIR || entry.file_name() == SCAN_DIR)
-            && entry
-                .path()
-                .parent()
-                .is_some_and(|p| p.join(TANK_FILE).is_file());
+            && entry.path().parent().is_some_and(|p| {
+                found.tanks.last().is_some_and(|t| t == p) || p.join(TANK_FILE).is_file()
+            });
         if hidden || tank_files {
             walk.skip_current_dir();
             continue;

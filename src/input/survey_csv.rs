@@ -225,7 +225,12 @@ fn plain_decimal(b: &[u8]) -> Option<f64> {
     }
     let k = fraction.map_or(0, |i| digits.len() - i - 1);
     // (mantissa < 10^15 < 2^53: exact as i64 and as f64.)
-    let v = mantissa as i64 as f64 / POW10[k];
+    // (A whole number needs no division: x / 1 is x.)
+    let v = if k == 0 {
+        mantissa as i64 as f64
+    } else {
+        mantissa as i64 as f64 / POW10[k]
+    };
     Some(if negative { -v } else { v })
 }
 
@@ -561,34 +566,15 @@ fn read_rows(
     let mut thin = ThinCheck::default();
     while read(reader, &mut record)? {
         let line = record.position().map_or(0, csv::Position::line);
-        single_lines(path, line, &record, Some(&cols.names))?;
-        if record.len() != cols.names.len() {
-            let row: Vec<String> = record
-                .iter()
-                .map(|f| String::from_utf8_lossy(f).into_owned())
-                .collect();
-            return Err(InputError::new(
-                at(line),
-                InputErrorKind::FieldCount {
-                    found: record.len(),
-                    expected: cols.names.len(),
-                    row: echo(&row.join(&char::from(delimiter).to_string())),
-                },
-            ));
-        }
-        for &i in &cols.unnamed {
-            let value = field(&record, i);
-            if !value.is_empty() {
-                return Err(InputError::new(
-                    at(line),
-                    InputErrorKind::UnnamedColumn {
-                        position: i + 1,
-                        value: echo(&String::from_utf8_lossy(value)),
-                    },
-                ));
+        // The common row at once; anything else checked step by step, each problem
+        // with its message.
+        let reading = match row_parser.quick(&record, points) {
+            Some(q) => row_parser.reading(q, line, file_index, points),
+            None => {
+                whole_row_checks(path, line, &record, &cols, delimiter)?;
+                row_parser.full(&Row::new(&record), line, file_index, points)?
             }
-        }
-        let reading = row_parser.parse(&record, line, file_index, points)?;
+        };
         thin.see(ctx, &reading);
         sink.accept(&reading);
         rows += 1;
@@ -609,6 +595,46 @@ fn read_rows(
         rows,
         thickness_unit,
     })
+}
+
+/// The checks of a row as a whole, before its fields are read: no line break in a
+/// value, as many fields as the header names, nothing under an unnamed column.
+fn whole_row_checks(
+    path: &str,
+    line: u64,
+    record: &csv::ByteRecord,
+    cols: &Columns,
+    delimiter: u8,
+) -> Result<(), InputError> {
+    let at = |line: u64| Location::line(path, line);
+    single_lines(path, line, record, Some(&cols.names))?;
+    if record.len() != cols.names.len() {
+        let row: Vec<String> = record
+            .iter()
+            .map(|f| String::from_utf8_lossy(f).into_owned())
+            .collect();
+        return Err(InputError::new(
+            at(line),
+            InputErrorKind::FieldCount {
+                found: record.len(),
+                expected: cols.names.len(),
+                row: echo(&row.join(&char::from(delimiter).to_string())),
+            },
+        ));
+    }
+    for &i in &cols.unnamed {
+        let value = field(record, i);
+        if !value.is_empty() {
+            return Err(InputError::new(
+                at(line),
+                InputErrorKind::UnnamedColumn {
+                    position: i + 1,
+                    value: echo(&String::from_utf8_lossy(value)),
+                },
+            ));
+        }
+    }
+    Ok(())
 }
 
 /// Watches whether every reading of a file is under [`ALL_THIN_FACTOR`] of its
@@ -693,6 +719,12 @@ fn has_control_byte(bytes: &[u8]) -> bool {
     // not a multiple of eight).
     let (words, _) = bytes.as_chunks::<8>();
     words.iter().fold(test(last), |hit, w| hit | test(w)) != 0
+}
+
+/// True when `text` holds a line feed or a carriage return.
+#[inline]
+fn has_line_break(text: &[u8]) -> bool {
+    text.iter().any(|&b| b == b'\n' || b == b'\r')
 }
 
 /// Refuses a record with a line break inside a value: in a survey file that is a quote
@@ -1010,36 +1042,33 @@ impl RowParser<'_> {
         }
     }
 
-    /// One row: the common row through [`Self::quick`], anything else (and every
-    /// error) through [`Self::full`].
+    /// The reading of a row [`Self::quick`] took.
     #[inline(always)]
-    fn parse<'r>(
-        &mut self,
-        record: &'r csv::ByteRecord,
+    fn reading<'r>(
+        &self,
+        q: QuickRow<'r>,
         line: u64,
         file_index: u32,
-        points: &'r mut PointNames,
-    ) -> Result<ReadingRef<'r>, InputError> {
-        match self.quick(record, points) {
-            Some(q) => Ok(ReadingRef {
-                date: q.date,
-                course: q.course,
-                thickness: q.thickness,
-                point: q.point.and_then(|key| {
-                    Some(PointRef {
-                        key,
-                        id: points.name(key)?,
-                    })
-                }),
-                elevation: q.elevation,
-                azimuth: q.azimuth,
-                note: q.note,
-                origin: Origin {
-                    file: file_index,
-                    line,
-                },
+        points: &'r PointNames,
+    ) -> ReadingRef<'r> {
+        ReadingRef {
+            date: q.date,
+            course: q.course,
+            thickness: q.thickness,
+            // (A key just given out always has its text.)
+            point: q.point.and_then(|key| {
+                Some(PointRef {
+                    key,
+                    id: points.name(key)?,
+                })
             }),
-            None => self.full(&Row::new(record), line, file_index, points),
+            elevation: q.elevation,
+            azimuth: q.azimuth,
+            note: q.note,
+            origin: Origin {
+                file: file_index,
+                line,
+            },
         }
     }
 
@@ -1059,6 +1088,9 @@ impl RowParser<'_> {
         let ctx = self.ctx;
         let cols = self.cols;
         // The fields, taken in one pass over the record by what their column holds.
+        if record.len() != self.roles.len() {
+            return None;
+        }
         let mut text: [&[u8]; 7] = [&[]; 7];
         for (field, role) in record.iter().zip(&self.roles) {
             if let (Some(a), Some(z)) = (field.first(), field.last())
@@ -1138,12 +1170,16 @@ impl RowParser<'_> {
                 Some(a)
             }
         };
+        // (Every other field is known by now to hold no line break: digits, a point,
+        // a minus sign, or the cached date's text.)
         let note = match note_text {
             [] => None,
+            text if has_line_break(text) => return None,
             text => Some(std::str::from_utf8(text).ok()?),
         };
         let point = match point_text {
             [] => None,
+            raw if has_line_break(raw) => return None,
             // (A text of at most that many bytes has at most that many characters.)
             raw if raw.len() <= MAX_POINT_CHARS => Some(points.key_of_bytes(raw).ok()?),
             _ => return None,
@@ -1617,10 +1653,12 @@ mod tests {
                 "",
                 "\u{c9}3",
                 "abcdefghijklmnopqrstuvwxyz0123456789abcdefghij",
+                "D1\nC2",
+                "D1\r",
             ],
             &["0.5", "2.4", "-0.0", "-1", "30", "", "1e0", " 1.2"],
             &["0", "45", "360", "361", "-0", "", "12.5"],
-            &["", "tape", "note with text", " x "],
+            &["", "tape", "note with text", " x ", "two\nlines", "a\rb"],
         ];
 
         /// Which of [`FIELDS`] each known column takes its text from.
@@ -1673,8 +1711,17 @@ mod tests {
             let mut taken = 0;
             for (n, row) in rows.iter().enumerate() {
                 let record = csv::ByteRecord::from(row.clone());
+                // A row with a field too many or too few is never taken.
+                let mut longer = record.clone();
+                longer.push_field(b"");
+                assert!(parser.quick(&longer, &mut quick_names.clone()).is_none());
+                let shorter: csv::ByteRecord = record.iter().skip(1).collect();
+                assert!(parser.quick(&shorter, &mut quick_names.clone()).is_none());
                 let quick = parser.quick(&record, &mut quick_names);
-                let full = parser.full(&Row::new(&record), n as u64 + 2, 0, &mut full_names);
+                // The reader checks the row as a whole, then reads its fields.
+                let line = n as u64 + 2;
+                let full = whole_row_checks("f.csv", line, &record, &cols, b',')
+                    .and_then(|()| parser.full(&Row::new(&record), line, 0, &mut full_names));
                 match (quick, full) {
                     (Some(q), Ok(full)) => {
                         taken += 1;

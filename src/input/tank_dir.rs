@@ -55,35 +55,42 @@ fn read_bytes(path: &Path) -> Result<Vec<u8>, InputError> {
 
 /// Reads and validates `dir/tank.toml`.
 pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
+    let path = dir.join(TANK_FILE);
+    // The file at once; only when it cannot be read is the folder looked at, to say
+    // why.
+    match std::fs::read(&path) {
+        Ok(bytes) => tank_from_bytes(&path.display().to_string(), &bytes),
+        Err(e) => Err(why_no_tank_file(dir, &path, e)),
+    }
+}
+
+/// Why `dir`'s tank file at `path` could not be read (`e`).
+#[cold]
+fn why_no_tank_file(dir: &Path, path: &Path, e: std::io::Error) -> InputError {
     let shown_dir = dir.display().to_string();
     // One look at the folder (what `exists` and `is_dir` would each ask for).
     match std::fs::metadata(dir) {
         Err(_) => {
-            return Err(InputError::new(
+            return InputError::new(
                 Location::file(shown_dir),
                 InputErrorKind::Io(std::io::Error::new(
                     std::io::ErrorKind::NotFound,
                     "no such file or folder",
                 )),
-            ));
+            );
         }
         Ok(m) if !m.is_dir() => {
-            return Err(InputError::new(
-                Location::file(shown_dir),
-                InputErrorKind::NotATankFolder,
-            ));
+            return InputError::new(Location::file(shown_dir), InputErrorKind::NotATankFolder);
         }
         Ok(_) => {}
     }
-    let path = dir.join(TANK_FILE);
     if !path.is_file() {
-        return Err(InputError::new(
-            Location::file(shown_dir),
-            InputErrorKind::NoTankFile,
-        ));
+        return InputError::new(Location::file(shown_dir), InputErrorKind::NoTankFile);
     }
-    let bytes = read_bytes(&path)?;
-    tank_from_bytes(&path.display().to_string(), &bytes)
+    InputError::new(
+        Location::file(path.display().to_string()),
+        InputErrorKind::Io(e),
+    )
 }
 
 /// Parses the bytes of a tank file; `shown` names it in messages.
@@ -141,15 +148,19 @@ pub fn not_read(skipped: &[PathBuf]) -> Vec<Warning> {
 /// The visible `*.csv` files of `dir/sub` and its other visible entries, both sorted.
 fn csv_files(dir: &Path, sub: &str) -> Result<(Vec<PathBuf>, Vec<PathBuf>), InputError> {
     let folder = dir.join(sub);
-    if !folder.is_dir() {
-        return Ok((Vec::new(), Vec::new()));
-    }
-    let entries = std::fs::read_dir(&folder).map_err(|e| {
-        InputError::new(
-            Location::file(folder.display().to_string()),
-            InputErrorKind::Io(e),
-        )
-    })?;
+    // The folder is listed at once: no folder (or a file by that name) holds no files.
+    let entries = match std::fs::read_dir(&folder) {
+        Ok(entries) => entries,
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound || !folder.is_dir() => {
+            return Ok((Vec::new(), Vec::new()));
+        }
+        Err(e) => {
+            return Err(InputError::new(
+                Location::file(folder.display().to_string()),
+                InputErrorKind::Io(e),
+            ));
+        }
+    };
     let mut files = Vec::new();
     let mut skipped = Vec::new();
     for entry in entries {
