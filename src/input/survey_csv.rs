@@ -721,6 +721,13 @@ fn has_control_byte(bytes: &[u8]) -> bool {
     words.iter().fold(test(last), |hit, w| hit | test(w)) != 0
 }
 
+/// True when `text` starts or ends with ASCII white space.
+#[inline]
+fn padded(text: &[u8]) -> bool {
+    text.first().is_some_and(u8::is_ascii_whitespace)
+        || text.last().is_some_and(u8::is_ascii_whitespace)
+}
+
 /// True when `text` holds a line feed or a carriage return.
 #[inline]
 fn has_line_break(text: &[u8]) -> bool {
@@ -1092,12 +1099,9 @@ impl RowParser<'_> {
             return None;
         }
         let mut text: [&[u8]; 7] = [&[]; 7];
+        // (White space around a value is left to the full reader: the date, course and
+        // numbers below take none, and the point and note are looked at for it.)
         for (field, role) in record.iter().zip(&self.roles) {
-            if let (Some(a), Some(z)) = (field.first(), field.last())
-                && (a.is_ascii_whitespace() || z.is_ascii_whitespace())
-            {
-                return None;
-            }
             match role {
                 Some(slot) => text[*slot as usize] = field,
                 None if field.is_empty() => {}
@@ -1174,12 +1178,12 @@ impl RowParser<'_> {
         // a minus sign, or the cached date's text.)
         let note = match note_text {
             [] => None,
-            text if has_line_break(text) => return None,
+            text if has_line_break(text) || padded(text) => return None,
             text => Some(std::str::from_utf8(text).ok()?),
         };
         let point = match point_text {
             [] => None,
-            raw if has_line_break(raw) => return None,
+            raw if has_line_break(raw) || padded(raw) => return None,
             // (A text of at most that many bytes has at most that many characters.)
             raw if raw.len() <= MAX_POINT_CHARS => Some(points.key_of_bytes(raw).ok()?),
             _ => return None,
