@@ -156,19 +156,17 @@ impl ReadingSink for Vec<Reading> {
 /// an id already known need no UTF-8 check, since that id's text was checked when it
 /// was first seen; only a new id is checked.
 ///
-/// Nothing is allocated per id: the ids sit one after the other in one string, and
-/// the map goes from the hash of an id's bytes to the last key with that hash (keys
-/// sharing a hash are chained, and compared byte for byte).
+/// Each id is kept once, as its key's text; the map goes from the hash of an id's
+/// bytes to the last key with that hash (keys sharing a hash are chained, and
+/// compared byte for byte).
 #[derive(Debug, Clone, Default)]
 pub struct PointNames {
     /// Hash of an id's bytes -> the last key given an id with that hash.
     by_hash: rustc_hash::FxHashMap<u64, u32>,
     /// Per key: the key given before it with the same hash, or [`NO_KEY`].
     same_hash: Vec<u32>,
-    /// Every id, one after the other.
-    text: String,
-    /// Per key: where its id starts and ends in `text`.
-    spans: Vec<(usize, usize)>,
+    /// Per key: its id.
+    ids: Vec<Box<str>>,
     /// The key after the one last asked for: the first guess for the next id.
     next: usize,
 }
@@ -197,12 +195,16 @@ fn id_hash(id: &[u8]) -> u64 {
     rustc_hash::FxBuildHasher.hash_one(id)
 }
 
+/// Room made for ids when the first one comes: a tank's survey has a few hundred
+/// points (common practice), and growing the map step by step costs more than this.
+const FIRST_ROOM: usize = 512;
+
 impl PointNames {
     /// The key of `id`, assigning the next one on first sight.
     pub fn key(&mut self, id: &str) -> PointKey {
         match self.find(id.as_bytes()) {
-            Some(k) => PointKey(k as u32),
-            None => self.insert(id),
+            Ok(k) => PointKey(k as u32),
+            Err(hash) => self.insert(id, hash),
         }
     }
     /// The key of the id whose bytes are `id`, assigning the next one on first sight;
@@ -210,36 +212,52 @@ impl PointNames {
     #[inline]
     pub fn key_of_bytes(&mut self, id: &[u8]) -> Result<PointKey, std::str::Utf8Error> {
         match self.find(id) {
-            Some(k) => Ok(PointKey(k as u32)),
-            None => Ok(self.insert(std::str::from_utf8(id)?)),
+            Ok(k) => Ok(PointKey(k as u32)),
+            Err(hash) => Ok(self.insert(std::str::from_utf8(id)?, hash)),
         }
     }
     /// The key of a known id: the one after the previous key first, then the map.
+    /// For an id not known, the hash of its bytes.
     #[inline]
-    fn find(&mut self, id: &[u8]) -> Option<usize> {
+    fn find(&mut self, id: &[u8]) -> Result<usize, u64> {
         let guess = self.next;
-        let key = match self.spans.get(guess) {
-            Some(&(start, end)) if same_bytes(&self.text.as_bytes()[start..end], id) => guess,
+        let key = match self.ids.get(guess) {
+            Some(name) if same_bytes(name.as_bytes(), id) => guess,
             _ => self.look_up(id)?,
         };
         self.next = key + 1;
-        Some(key)
+        Ok(key)
     }
-    /// The key of a known id, from the map.
-    fn look_up(&self, id: &[u8]) -> Option<usize> {
-        let mut k = *self.by_hash.get(&id_hash(id))? as usize;
-        while self.bytes(k)? != id {
-            k = *self.same_hash.get(k)? as usize;
+    /// The key of a known id, from the map; the hash of its bytes when it is not
+    /// known.
+    fn look_up(&self, id: &[u8]) -> Result<usize, u64> {
+        let hash = id_hash(id);
+        let mut k = match self.by_hash.get(&hash) {
+            Some(&k) => k as usize,
+            None => return Err(hash),
+        };
+        loop {
+            match self.bytes(k) {
+                Some(name) if name == id => return Ok(k),
+                Some(_) => {}
+                None => return Err(hash),
+            }
+            k = match self.same_hash.get(k) {
+                Some(&before) => before as usize,
+                None => return Err(hash),
+            };
         }
-        Some(k)
     }
-    /// A new id's key.
-    fn insert(&mut self, id: &str) -> PointKey {
-        let k = self.spans.len();
-        let start = self.text.len();
-        self.text.push_str(id);
-        self.spans.push((start, self.text.len()));
-        let before = self.by_hash.insert(id_hash(id.as_bytes()), k as u32);
+    /// A new id's key; `hash` is the hash of its bytes.
+    fn insert(&mut self, id: &str, hash: u64) -> PointKey {
+        let k = self.ids.len();
+        if k == 0 {
+            self.ids.reserve(FIRST_ROOM);
+            self.same_hash.reserve(FIRST_ROOM);
+            self.by_hash.reserve(FIRST_ROOM);
+        }
+        self.ids.push(Box::from(id));
+        let before = self.by_hash.insert(hash, k as u32);
         self.same_hash.push(before.unwrap_or(NO_KEY));
         self.next = k + 1;
         PointKey(k as u32)
@@ -247,22 +265,20 @@ impl PointNames {
     /// The bytes of id `k`.
     #[inline]
     fn bytes(&self, k: usize) -> Option<&[u8]> {
-        let &(start, end) = self.spans.get(k)?;
-        self.text.as_bytes().get(start..end)
+        Some(self.ids.get(k)?.as_bytes())
     }
     /// The text of a key given out by this interner.
     #[inline]
     pub fn name(&self, key: PointKey) -> Option<&str> {
-        let &(start, end) = self.spans.get(key.0 as usize)?;
-        self.text.get(start..end)
+        self.ids.get(key.0 as usize).map(|id| &**id)
     }
     /// Number of distinct ids seen.
     pub fn len(&self) -> usize {
-        self.spans.len()
+        self.ids.len()
     }
     /// True when no id has been seen.
     pub fn is_empty(&self) -> bool {
-        self.spans.is_empty()
+        self.ids.is_empty()
     }
 }
 
