@@ -200,6 +200,10 @@ pub struct Drops {
     without: usize,
 }
 
+/// Drops made room for at once: surveys take a course's readings on 8 to 16 drops
+/// round the shell (common practice).
+const DROP_ROOM: usize = 16;
+
 /// The same drops (where the last reading went is no part of the value).
 impl PartialEq for Drops {
     fn eq(&self, other: &Self) -> bool {
@@ -224,6 +228,10 @@ impl Drops {
                     _ => match self.by_azimuth.binary_search_by_key(&bits, |d| d.0) {
                         Ok(i) => i,
                         Err(i) => {
+                            // (Room for a course's usual drops at once.)
+                            if n == 0 {
+                                self.by_azimuth.reserve(DROP_ROOM);
+                            }
                             self.by_azimuth.insert(i, (bits, 0, f64::INFINITY));
                             i
                         }

@@ -11,7 +11,7 @@ use super::scan_csv::read_scan;
 use super::survey_csv::{SurveyContext, SurveyFileInfo, read_survey};
 use super::tank_file::parse_tank;
 use crate::calc::units::{Thickness, UnitSystem};
-use crate::model::reading::{Origin, PointNames, ReadingRef, ReadingSet, ReadingSink};
+use crate::model::reading::{Origin, POINT_ROOM, PointNames, ReadingRef, ReadingSet, ReadingSink};
 use crate::model::scan::Scan;
 use crate::model::tank::Tank;
 use crate::model::warning::{Shown, Warning};
@@ -233,6 +233,8 @@ pub fn stream_surveys(
     let mut filter = RepeatFilter::new(tank.units, sink);
     let mut infos = Vec::new();
     let (paths, skipped) = survey_files(dir)?;
+    // Room for the repeat check of the first file's points at once.
+    filter.entries.reserve(POINT_ROOM);
     for (i, path) in paths.iter().enumerate() {
         let shown = path.display().to_string();
         let file = std::fs::File::open(path)
@@ -334,7 +336,7 @@ impl<'s, S: ReadingSink> RepeatFilter<'s, S> {
             inner,
             units,
             files: Vec::new(),
-            by_key: Vec::new(),
+            by_key: Vec::with_capacity(POINT_ROOM),
             entries: Vec::new(),
             remarks: Vec::new(),
             conflict: None,

@@ -174,17 +174,17 @@ pub struct PointNames {
 /// No key (the end of a hash chain).
 const NO_KEY: u32 = u32::MAX;
 
-/// `a == b`, for the short texts of point ids without a call to the C library: up to
-/// 16 bytes as two (overlapping) eight-byte words.
+/// `a == b`, for the short texts of point ids without a call to the C library: 4 to
+/// 16 bytes as two (overlapping) words of 4 or 8 bytes, fewer byte by byte.
 #[inline]
 fn same_bytes(a: &[u8], b: &[u8]) -> bool {
     if a.len() != b.len() {
         return false;
     }
-    match (a.first_chunk::<8>(), a.last_chunk::<8>()) {
-        (Some(a0), Some(a1)) if a.len() <= 16 => {
-            b.first_chunk::<8>() == Some(a0) && b.last_chunk::<8>() == Some(a1)
-        }
+    match a.len() {
+        8..=16 => a.first_chunk::<8>() == b.first_chunk() && a.last_chunk::<8>() == b.last_chunk(),
+        4..=7 => a.first_chunk::<4>() == b.first_chunk() && a.last_chunk::<4>() == b.last_chunk(),
+        0..=3 => a.iter().zip(b).all(|(x, y)| x == y),
         _ => a == b,
     }
 }
@@ -195,9 +195,10 @@ fn id_hash(id: &[u8]) -> u64 {
     rustc_hash::FxBuildHasher.hash_one(id)
 }
 
-/// Room made for ids when the first one comes: a tank's survey has a few hundred
-/// points (common practice), and growing the map step by step costs more than this.
-const FIRST_ROOM: usize = 512;
+/// Room made at once for the points of a tank, in the interner and in whatever keeps
+/// something per point: a tank's survey has a few hundred points (common practice),
+/// and growing step by step costs more than the room.
+pub const POINT_ROOM: usize = 512;
 
 impl PointNames {
     /// The key of `id`, assigning the next one on first sight.
@@ -252,9 +253,9 @@ impl PointNames {
     fn insert(&mut self, id: &str, hash: u64) -> PointKey {
         let k = self.ids.len();
         if k == 0 {
-            self.ids.reserve(FIRST_ROOM);
-            self.same_hash.reserve(FIRST_ROOM);
-            self.by_hash.reserve(FIRST_ROOM);
+            self.ids.reserve(POINT_ROOM);
+            self.same_hash.reserve(POINT_ROOM);
+            self.by_hash.reserve(POINT_ROOM);
         }
         self.ids.push(Box::from(id));
         let before = self.by_hash.insert(hash, k as u32);
