@@ -107,10 +107,10 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     let tu = units.thickness_unit();
     let su = units.stress_unit();
 
-    let diameter = top.required_number("diameter", &format!("a number in {lu}"))?;
+    let diameter = top.required_number("diameter", format_args!("a number in {lu}"))?;
     top.positive(&diameter, "diameter", lu)?;
     top.plausible(&diameter, "diameter", limits::diameter(units))?;
-    let fill = top.required_number("max_fill_height", &format!("a number in {lu}"))?;
+    let fill = top.required_number("max_fill_height", format_args!("a number in {lu}"))?;
     top.positive(&fill, "max_fill_height", lu)?;
     let sg = top.required_number("specific_gravity", "a number, e.g. 0.85")?;
     if !(*sg.get_ref() > 0.0 && *sg.get_ref() <= MAX_SPECIFIC_GRAVITY) {
@@ -201,10 +201,10 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
     let mut bottom = 0.0;
     for (i, c) in course_tables.iter().enumerate() {
         let number = i as u32 + 1;
-        let height = c.required_number("height", &format!("a number in {lu}"))?;
+        let height = c.required_number("height", format_args!("a number in {lu}"))?;
         c.positive(&height, "height", lu)?;
         c.plausible(&height, "height", limits::course_height(units))?;
-        let nominal = c.required_number("nominal_thickness", &format!("a number in {tu}"))?;
+        let nominal = c.required_number("nominal_thickness", format_args!("a number in {tu}"))?;
         c.positive(&nominal, "nominal_thickness", tu)?;
         c.plausible(
             &nominal,
@@ -216,7 +216,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             None => None,
             Some(e) => Some(c.efficiency(&e)?),
         };
-        let ca = match c.optional_number("corrosion_allowance", &format!("a number in {tu}"))? {
+        let ca = match c.optional_number("corrosion_allowance", format_args!("a number in {tu}"))? {
             None => 0.0,
             Some(v) if *v.get_ref() >= 0.0 => *v.get_ref(),
             Some(v) => {
@@ -228,7 +228,7 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
             }
         };
         let stress = |key: &str| -> Result<Option<Stress>, InputError> {
-            match c.optional_number(key, &format!("a number in {su}"))? {
+            match c.optional_number(key, format_args!("a number in {su}"))? {
                 None => Ok(None),
                 Some(v) => {
                     c.positive(&v, key, su)?;
@@ -282,8 +282,8 @@ pub fn parse_tank(path: &str, text: &str) -> Result<Tank, InputError> {
 fn course_material(c: &Table<'_, '_>, units: UnitSystem) -> Result<Material, InputError> {
     let su = units.stress_unit();
     let grade = c.optional_string("material", "a grade name, e.g. \"A36\"")?;
-    let ys = c.optional_number("yield_strength", &format!("a number in {su}"))?;
-    let ts = c.optional_number("tensile_strength", &format!("a number in {su}"))?;
+    let ys = c.optional_number("yield_strength", format_args!("a number in {su}"))?;
+    let ts = c.optional_number("tensile_strength", format_args!("a number in {su}"))?;
     match (grade, ys, ts) {
         (Some(g), None, None) => match find_grade(g.get_ref()) {
             Some(grade) => Ok(Material::Grade(grade)),
@@ -528,10 +528,12 @@ impl<'d, 'i> Table<'d, 'i> {
             .ok_or_else(|| self.missing(key, expected))
     }
 
+    /// A number under `key`, if there is one. `expected` describes it for messages
+    /// (written out only when one is needed).
     fn optional_number(
         &self,
         key: &str,
-        expected: &str,
+        expected: impl std::fmt::Display + Copy,
     ) -> Result<Option<Spanned<f64>>, InputError> {
         let Some(v) = self.get(key) else {
             return Ok(None);
@@ -539,7 +541,7 @@ impl<'d, 'i> Table<'d, 'i> {
         match v.get_ref() {
             DeValue::Integer(_) | DeValue::Float(_) => {
                 let n = f64::deserialize(ValueDeserializer::from(v.clone()))
-                    .map_err(|_| self.wrong_type(key, v, expected))?;
+                    .map_err(|_| self.wrong_type(key, v, &expected.to_string()))?;
                 if !n.is_finite() {
                     return Err(self.invalid(
                         v,
@@ -549,17 +551,18 @@ impl<'d, 'i> Table<'d, 'i> {
                 }
                 Ok(Some(Spanned::new(v.span(), n)))
             }
-            _ => Err(self.wrong_type(key, v, expected)),
+            _ => Err(self.wrong_type(key, v, &expected.to_string())),
         }
     }
 
+    /// [`Self::optional_number`], missing when absent.
     fn required_number(
         &self,
         key: &'static str,
-        expected: &str,
+        expected: impl std::fmt::Display + Copy,
     ) -> Result<Spanned<f64>, InputError> {
         self.optional_number(key, expected)?
-            .ok_or_else(|| self.missing(key, expected))
+            .ok_or_else(|| self.missing(key, &expected.to_string()))
     }
 
     fn positive(&self, v: &Spanned<f64>, key: &str, unit: &str) -> Result<(), InputError> {
