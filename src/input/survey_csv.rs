@@ -30,7 +30,9 @@ use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_t
 use super::limits::{ALL_THIN_FACTOR, EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
-use crate::model::reading::{Origin, PointKey, PointNames, PointRef, ReadingRef, ReadingSink};
+use crate::model::reading::{
+    Origin, PointKey, PointNames, PointRef, ReadingRef, ReadingSink, same_bytes,
+};
 use crate::model::warning::Shown;
 
 /// Every column name the reader knows.
@@ -560,6 +562,7 @@ fn read_rows(
         cols: &cols,
         delimiter,
         date_cache: None,
+        elevation_cache: TextCache::default(),
         roles: cols.roles(),
     };
     let mut rows = 0usize;
@@ -919,6 +922,35 @@ pub fn read_number(s: &str, delimiter: u8) -> NumberText {
     }
 }
 
+/// A short text (at most 16 bytes) and the value it was read as.
+#[derive(Debug, Default)]
+struct TextCache<T> {
+    text: [u8; 16],
+    /// Bytes of `text` in use; 0 when nothing is kept.
+    len: usize,
+    value: T,
+}
+
+impl<T: Copy> TextCache<T> {
+    /// True when `text` is the text kept.
+    #[inline(always)]
+    fn holds(&self, text: &[u8]) -> bool {
+        self.len > 0 && text.len() == self.len && same_bytes(&self.text[..self.len], text)
+    }
+    /// Keeps `text` (when short enough) with `value`.
+    #[inline]
+    fn keep(&mut self, text: &[u8], value: T) {
+        match self.text.get_mut(..text.len()) {
+            Some(slot) if !text.is_empty() => {
+                slot.copy_from_slice(text);
+                self.len = text.len();
+                self.value = value;
+            }
+            _ => self.len = 0,
+        }
+    }
+}
+
 /// The fields of a row read by [`RowParser::quick`].
 struct QuickRow<'r> {
     date: NaiveDate,
@@ -939,6 +971,8 @@ struct RowParser<'a> {
     /// (Every valid date text is ten bytes, YYYY-MM-DD: kept as an array, compared
     /// without a call.)
     date_cache: Option<([u8; 10], NaiveDate)>,
+    /// The last elevation text [`Self::quick`] read, and its value.
+    elevation_cache: TextCache<Length>,
     /// Per column, where [`Self::quick`] puts its text: 0 date, 1 course, 2 thickness,
     /// 3 point, 4 elevation, 5 azimuth, 6 note; None for an unnamed column.
     roles: Vec<Option<u8>>,
@@ -1088,7 +1122,7 @@ impl RowParser<'_> {
     /// up last.
     #[inline(always)]
     fn quick<'r>(
-        &self,
+        &mut self,
         record: &'r csv::ByteRecord,
         points: &mut PointNames,
     ) -> Option<QuickRow<'r>> {
@@ -1148,6 +1182,9 @@ impl RowParser<'_> {
         let elevation = match cols.elevation {
             Some((_, suffix)) => match elevation_text {
                 [] => None,
+                // The same text as the row before (drops round the shell share their
+                // elevations): its value, read and checked then.
+                text if self.elevation_cache.holds(text) => Some(self.elevation_cache.value),
                 text => {
                     let v = plain_decimal(text)?;
                     if v < 0.0 {
@@ -1159,6 +1196,7 @@ impl RowParser<'_> {
                     {
                         return None;
                     }
+                    self.elevation_cache.keep(text, e);
                     Some(e)
                 }
             },
@@ -1708,6 +1746,7 @@ mod tests {
                 cols: &cols,
                 delimiter: b',',
                 date_cache: None,
+                elevation_cache: TextCache::default(),
                 roles: cols.roles(),
             };
             // Both paths start every row from the same interner (the reader stops at
