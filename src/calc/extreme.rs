@@ -213,6 +213,7 @@ impl PartialEq for Drops {
 
 impl Drops {
     /// Adds one reading.
+    #[inline]
     pub fn push(&mut self, azimuth: Option<f64>, thickness: Thickness) {
         match azimuth {
             None => self.without += 1,
