@@ -149,25 +149,31 @@ impl Tally {
         }
     }
 
+    /// The group of (course, date): the one of the reading before nearly always.
+    #[inline]
     fn group(&mut self, course: u32, date: NaiveDate) -> &mut SurveyGroup {
         let i = match self.last_group {
             Some((c, d, i)) if c == course && d == date => i,
-            _ => {
-                let next = self.groups.len();
-                let i = *self.group_index.entry((course, date)).or_insert(next);
-                if i == next {
-                    self.groups.push(SurveyGroup {
-                        course,
-                        date,
-                        stats: ReadingStats::default(),
-                        drops: Drops::default(),
-                    });
-                }
-                self.last_group = Some((course, date, i));
-                i
-            }
+            _ => self.find_group(course, date),
         };
         &mut self.groups[i]
+    }
+
+    /// Where the group of (course, date) is, made when new.
+    #[inline(never)]
+    fn find_group(&mut self, course: u32, date: NaiveDate) -> usize {
+        let next = self.groups.len();
+        let i = *self.group_index.entry((course, date)).or_insert(next);
+        if i == next {
+            self.groups.push(SurveyGroup {
+                course,
+                date,
+                stats: ReadingStats::default(),
+                drops: Drops::default(),
+            });
+        }
+        self.last_group = Some((course, date, i));
+        i
     }
 
     /// Survey groups ordered by course, then date.

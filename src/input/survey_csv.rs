@@ -521,34 +521,8 @@ fn read_rows(
 ) -> Result<SurveyFileInfo, InputError> {
     let mut record = csv::ByteRecord::new();
     let at = |line: u64| Location::line(path, line);
-    let read = |reader: &mut CsvReader, record: &mut csv::ByteRecord| loop {
-        let more = reader.read_byte_record(record).map_err(|e| {
-            if let Some(bad) = bad_byte_of(&e) {
-                return InputError::new(
-                    Location {
-                        path: path.to_string(),
-                        line: Some(bad.line),
-                        column: Some(bad.column),
-                    },
-                    InputErrorKind::NotUtf8 {
-                        column: None,
-                        byte: Some(bad.byte),
-                    },
-                );
-            }
-            let line = e.position().map_or(1, |p| p.line());
-            InputError::new(
-                at(line),
-                InputErrorKind::Io(std::io::Error::other(e.to_string())),
-            )
-        })?;
-        // A row of empty fields (a blank line, or ",,," from a spreadsheet) holds no
-        // reading: skipped.
-        // (Every field empty after trimming <=> every byte of the record is white
-        // space: one pass over the record's bytes.)
-        if !more || !record.as_slice().iter().all(u8::is_ascii_whitespace) {
-            return Ok::<bool, InputError>(more);
-        }
+    let read = |reader: &mut CsvReader, record: &mut csv::ByteRecord| {
+        next_record(reader, record).map_err(|e| read_error(path, e))
     };
     if !read(reader, &mut record)? {
         return Err(InputError::new(at(1), InputErrorKind::EmptyFile));
@@ -598,6 +572,43 @@ fn read_rows(
         rows,
         thickness_unit,
     })
+}
+
+/// The next record that holds something, or false at the end of the file. A row of
+/// empty fields (a blank line, or ",,," from a spreadsheet) holds no reading: skipped.
+#[inline(always)]
+fn next_record(reader: &mut CsvReader, record: &mut csv::ByteRecord) -> csv::Result<bool> {
+    loop {
+        let more = reader.read_byte_record(record)?;
+        // (Every field empty after trimming <=> every byte of the record is white
+        // space: one pass over the record's bytes.)
+        if !more || !record.as_slice().iter().all(u8::is_ascii_whitespace) {
+            return Ok(more);
+        }
+    }
+}
+
+/// The message for a record the csv reader could not read.
+#[cold]
+fn read_error(path: &str, e: csv::Error) -> InputError {
+    if let Some(bad) = bad_byte_of(&e) {
+        return InputError::new(
+            Location {
+                path: path.to_string(),
+                line: Some(bad.line),
+                column: Some(bad.column),
+            },
+            InputErrorKind::NotUtf8 {
+                column: None,
+                byte: Some(bad.byte),
+            },
+        );
+    }
+    let line = e.position().map_or(1, |p| p.line());
+    InputError::new(
+        Location::line(path, line),
+        InputErrorKind::Io(std::io::Error::other(e.to_string())),
+    )
 }
 
 /// The checks of a row as a whole, before its fields are read: no line break in a

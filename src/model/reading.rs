@@ -176,7 +176,7 @@ const NO_KEY: u32 = u32::MAX;
 
 /// `a == b`, for the short texts of point ids without a call to the C library: 4 to
 /// 16 bytes as two (overlapping) words of 4 or 8 bytes, fewer byte by byte.
-#[inline]
+#[inline(always)]
 pub fn same_bytes(a: &[u8], b: &[u8]) -> bool {
     if a.len() != b.len() {
         return false;
