@@ -58,11 +58,26 @@ pub fn load_tank_file(dir: &Path) -> Result<Tank, InputError> {
     let path = dir.join(TANK_FILE);
     // The file at once; only when it cannot be read is the folder looked at, to say
     // why.
-    match std::fs::read(&path) {
+    match read_small(&path) {
         Ok(bytes) => tank_from_bytes(&path.display().to_string(), &bytes),
         Err(e) => Err(why_no_tank_file(dir, &path, e)),
     }
 }
+
+/// The bytes of a small file (a tank file is a few kilobytes): read into room made
+/// beforehand, without asking the file system for the size first.
+fn read_small(path: &Path) -> std::io::Result<Vec<u8>> {
+    use std::io::Read;
+    let mut bytes = Vec::with_capacity(TANK_FILE_ROOM);
+    // (Through `take`: `File`'s own `read_to_end` asks for the size first.)
+    std::fs::File::open(path)?
+        .take(u64::MAX)
+        .read_to_end(&mut bytes)?;
+    Ok(bytes)
+}
+
+/// Bytes made room for when a tank file is read (more are read when it is longer).
+const TANK_FILE_ROOM: usize = 16 * 1024;
 
 /// Why `dir`'s tank file at `path` could not be read (`e`).
 #[cold]
