@@ -663,18 +663,23 @@ struct ThinCheck {
 }
 
 impl ThinCheck {
+    #[inline]
     fn see(&mut self, ctx: &SurveyContext, r: &ReadingRef<'_>) {
+        self.count += 1;
+        // (Once one reading is not that thin, the file is not all thin.)
+        if self.count > 1 && !self.all_thin {
+            return;
+        }
         let thin = ctx
             .nominal
             .get((r.course as usize).wrapping_sub(1))
             .is_some_and(|n| r.thickness.0 < ALL_THIN_FACTOR * n.0);
-        if self.count == 0 {
+        if self.count == 1 {
             self.all_thin = thin;
             self.first = Some((r.origin, r.course, r.thickness));
         } else {
             self.all_thin &= thin;
         }
-        self.count += 1;
     }
 
     fn check(&self, path: &str, ctx: &SurveyContext, suffix: Suffix) -> Result<(), InputError> {
