@@ -1129,13 +1129,16 @@ impl RowParser<'_> {
         }
     }
 
-    /// The common row, read with no message at hand: every field in its plain form
-    /// (the date as the row before, one or two digits for the course, plain decimals,
-    /// a point id no longer than allowed) and within its bounds. None for anything
-    /// else, which [`Self::full`] then reads, with its messages: the two agree on
-    /// every row this accepts (the same conversions, the same checks in the same
-    /// order). Nothing is changed before every check has passed; the point is looked
-    /// up last.
+    /// The common row, read with no message at hand: as many fields as the header
+    /// names, nothing under an unnamed column, every value in its plain form (the date
+    /// as the row before, one or two digits for the course, plain decimals, a point id
+    /// no longer than allowed and a note, neither with white space around it nor a
+    /// line break in it) and within its bounds. None for anything else, which the
+    /// whole-row checks and [`Self::full`] then read, with their messages: the two
+    /// agree on every row this accepts (the same conversions, the same checks). The
+    /// point is looked up last, so a row this leaves has given no point a key; the
+    /// only thing kept from such a row is its elevation, read and checked in full,
+    /// for the next row.
     #[inline(always)]
     fn quick<'r>(
         &mut self,
