@@ -363,6 +363,12 @@ impl<R: Read> Read for Utf8Guard<R> {
             joined = v;
             &joined
         };
+        // (simdutf8's check, many bytes at a time, for the usual valid buffer; the
+        // standard library's only to find where a bad one goes wrong.)
+        if simdutf8::basic::from_utf8(data).is_ok() {
+            self.advance(data);
+            return Ok(n);
+        }
         match std::str::from_utf8(data) {
             Ok(_) => self.advance(data),
             Err(e) => {
