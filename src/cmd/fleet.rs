@@ -23,7 +23,8 @@ use crate::calc::fleet::{fleet_series, fleet_tank, order_fleet};
 use crate::calc::series::report_series;
 use crate::calc::units::UnitSystem;
 use crate::cli::{FleetArgs, Format};
-use crate::input::fleet::find_tank_dirs;
+use crate::input::error::InputError;
+use crate::input::fleet::{Found, find_tank_dirs, no_tank_folders, walk_tank_dirs};
 use crate::input::tank_dir::{SCAN_DIR, SURVEY_DIR, load_tank_dir, load_tank_file};
 use crate::model::fleet::{Fleet, FleetEntry};
 use crate::model::result::Assessment;
@@ -48,57 +49,14 @@ struct ReportTo<'a> {
 /// Runs the command.
 pub fn run(args: &FleetArgs, g: Global) -> Result<Outcome, Error> {
     let today = today();
-    let found = find_tank_dirs(&args.dir)?;
     let out: Option<PathBuf> = args
         .out
         .as_ref()
         .map(|o| o.clone().unwrap_or_else(default_folder));
-    // With --out, every tank's report folder is named before any is written: the names
-    // depend on all the tank ids (two tanks may share one), never on which worker
-    // finishes first. The tank files are read for their ids (again by each worker:
-    // a tank file is read in microseconds, a report drawn in tens of milliseconds).
-    let names: Vec<Option<String>> = match &out {
-        Some(dir) => {
-            refuse_inputs(dir, &found.tanks)?;
-            let ids: Vec<Option<String>> = found
-                .tanks
-                .par_iter()
-                .map(|d| load_tank_file(d).ok().map(|t| t.id))
-                .collect();
-            report_names(&ids.iter().map(Option::as_deref).collect::<Vec<_>>())
-        }
-        None => vec![None; found.tanks.len()],
+    let mut entries = match &out {
+        Some(dir) => assess_with_reports(&args.dir, dir, today, g)?,
+        None => assess_while_searching(&args.dir, today, g.quiet)?,
     };
-    let bar = progress_bar(found.tanks.len() as u64, g.quiet);
-    let mut entries: Vec<FleetEntry> = found
-        .tanks
-        .par_iter()
-        .zip(names.par_iter())
-        .map(|(dir, name)| {
-            let report = out
-                .as_deref()
-                .zip(name.as_deref())
-                .map(|(out, name)| ReportTo {
-                    out,
-                    name,
-                    units: g.units,
-                });
-            let entry = assess_entry(dir, today, report);
-            bar.inc(1);
-            entry
-        })
-        .collect();
-    bar.finish_and_clear();
-    entries.extend(
-        found
-            .unreadable
-            .into_iter()
-            .map(|(path, e)| FleetEntry::Failed {
-                folder: display(&path),
-                tank_id: None,
-                message: e.to_string(),
-            }),
-    );
     order_fleet(&mut entries);
     let fleet = Fleet {
         root: display(&args.dir),
@@ -146,6 +104,93 @@ pub fn run(args: &FleetArgs, g: Global) -> Result<Outcome, Error> {
         Ok(Outcome::InputErrors)
     } else {
         Ok(Outcome::Done)
+    }
+}
+
+/// Every tank below `root` with its report folder in `out` (`--out`). Every tank's
+/// report folder is named before any is written: the names depend on all the tank ids
+/// (two tanks may share one), never on which worker finishes first, so the search
+/// ends before the first tank is assessed. The tank files are read for their ids
+/// (again by each worker: a tank file is read in microseconds, a report drawn in
+/// tens of milliseconds).
+fn assess_with_reports(
+    root: &Path,
+    out: &Path,
+    today: NaiveDate,
+    g: Global,
+) -> Result<Vec<FleetEntry>, Error> {
+    let found = find_tank_dirs(root)?;
+    refuse_inputs(out, &found.tanks)?;
+    let ids: Vec<Option<String>> = found
+        .tanks
+        .par_iter()
+        .map(|d| load_tank_file(d).ok().map(|t| t.id))
+        .collect();
+    let names = report_names(&ids.iter().map(Option::as_deref).collect::<Vec<_>>());
+    let bar = progress_bar(found.tanks.len() as u64, g.quiet);
+    let mut entries: Vec<FleetEntry> = found
+        .tanks
+        .par_iter()
+        .zip(names.par_iter())
+        .map(|(dir, name)| {
+            let report = name.as_deref().map(|name| ReportTo {
+                out,
+                name,
+                units: g.units,
+            });
+            let entry = assess_entry(dir, today, report);
+            bar.inc(1);
+            entry
+        })
+        .collect();
+    bar.finish_and_clear();
+    entries.extend(
+        found
+            .unreadable
+            .into_iter()
+            .map(|(path, e)| unreadable(&path, &e)),
+    );
+    Ok(entries)
+}
+
+/// Every tank below `root`, each assessed as soon as the search finds it (the search
+/// and the assessments share the workers), in the order of [`find_tank_dirs`]: the
+/// tanks in path order, then the folders that could not be searched.
+fn assess_while_searching(
+    root: &Path,
+    today: NaiveDate,
+    quiet: bool,
+) -> Result<Vec<FleetEntry>, Error> {
+    let search = walk_tank_dirs(root)?;
+    // (Its length grows as tanks are found.)
+    let bar = progress_bar(0, quiet);
+    let mut entries: Vec<(bool, usize, FleetEntry)> = search
+        .enumerate()
+        .par_bridge()
+        .map(|(i, found)| match found {
+            Found::Tank(dir) => {
+                bar.inc_length(1);
+                let entry = assess_entry(&dir, today, None);
+                bar.inc(1);
+                (false, i, entry)
+            }
+            Found::Unreadable(path, e) => (true, i, unreadable(&path, &e)),
+        })
+        .collect();
+    bar.finish_and_clear();
+    if entries.is_empty() {
+        return Err(no_tank_folders(root).into());
+    }
+    entries.sort_unstable_by_key(|&(failed, i, _)| (failed, i));
+    Ok(entries.into_iter().map(|(_, _, e)| e).collect())
+}
+
+/// The fleet line of a folder the search could not read.
+fn unreadable(path: &Path, e: &InputError) -> FleetEntry {
+    FleetEntry::Failed {
+        folder: display(path),
+        tank_id: None,
+        message: e.to_string(),
     }
 }
 

@@ -4,6 +4,7 @@
 pub mod error;
 pub mod fleet;
 pub mod limits;
+mod records;
 pub mod scan_csv;
 pub mod survey_csv;
 pub mod tank_dir;

@@ -22,12 +22,13 @@
 //! a [`ReadingSink`] at once; memory does not grow with the number of rows.
 
 use std::cell::RefCell;
-use std::io::{BufRead, BufReader, Read, Seek, SeekFrom};
+use std::io::{BufRead, BufReader, Read};
 
 use chrono::{Datelike, NaiveDate};
 
 use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
 use super::limits::{ALL_THIN_FACTOR, EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
+use super::records::{Record, Records};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{
@@ -209,23 +210,41 @@ fn plain_decimal(b: &[u8]) -> Option<f64> {
     if digits.len() > 16 {
         return None;
     }
+    // The whole part, then the fraction after a point (each digit as it comes).
+    let n = digits.len();
     let mut mantissa: u64 = 0;
-    let mut fraction: Option<usize> = None;
-    for (i, &c) in digits.iter().enumerate() {
-        let d = c.wrapping_sub(b'0');
-        if d < 10 {
-            mantissa = mantissa * 10 + u64::from(d);
-        } else if c == b'.' && fraction.is_none() {
-            fraction = Some(i);
-        } else {
+    let mut i = 0;
+    while i < n {
+        let d = digits[i].wrapping_sub(b'0');
+        if d >= 10 {
+            break;
+        }
+        mantissa = mantissa * 10 + u64::from(d);
+        i += 1;
+    }
+    let point = i < n;
+    let k = if point {
+        if digits[i] != b'.' {
             return None;
         }
-    }
-    let count = digits.len() - usize::from(fraction.is_some());
+        i += 1;
+        let first = i;
+        while i < n {
+            let d = digits[i].wrapping_sub(b'0');
+            if d >= 10 {
+                return None;
+            }
+            mantissa = mantissa * 10 + u64::from(d);
+            i += 1;
+        }
+        n - first
+    } else {
+        0
+    };
+    let count = n - usize::from(point);
     if count == 0 || count > 15 {
         return None;
     }
-    let k = fraction.map_or(0, |i| digits.len() - i - 1);
     // (mantissa < 10^15 < 2^53: exact as i64 and as f64.)
     // (A whole number needs no division: x / 1 is x.)
     let v = if k == 0 {
@@ -235,9 +254,6 @@ fn plain_decimal(b: &[u8]) -> Option<f64> {
     };
     Some(if negative { -v } else { v })
 }
-
-/// Bytes the reader asks the file for at a time.
-const READ_BUFFER: usize = 64 * 1024;
 
 /// Reads the start of `input` up to and including the first line that is neither
 /// blank nor a comment (the line the delimiter is detected from), without the
@@ -337,12 +353,9 @@ impl<R: Read> Utf8Guard<R> {
     }
 }
 
-/// The bad byte behind a csv error, if that is what it is.
-fn bad_byte_of(e: &csv::Error) -> Option<BadByte> {
-    match e.kind() {
-        csv::ErrorKind::Io(io) => io.get_ref()?.downcast_ref::<BadByte>().copied(),
-        _ => None,
-    }
+/// The bad byte behind a read error, if that is what it is.
+fn bad_byte_of(e: &std::io::Error) -> Option<BadByte> {
+    e.get_ref()?.downcast_ref::<BadByte>().copied()
 }
 
 impl<R: Read> Read for Utf8Guard<R> {
@@ -388,7 +401,7 @@ impl<R: Read> Read for Utf8Guard<R> {
 /// A field of a record without surrounding ASCII white space (the csv crate's
 /// `Trim::All` does the same, but copies every record to do it).
 #[inline]
-fn field(record: &csv::ByteRecord, i: usize) -> &[u8] {
+fn field(record: &Record, i: usize) -> &[u8] {
     record.get(i).unwrap_or(&[]).trim_ascii()
 }
 
@@ -409,13 +422,13 @@ const ROW_FIELDS: usize = 8;
 /// The fields of one record, split and trimmed in one pass (as [`field`] would give
 /// them one by one).
 struct Row<'r> {
-    record: &'r csv::ByteRecord,
+    record: &'r Record,
     fields: [&'r [u8]; ROW_FIELDS],
 }
 
 impl<'r> Row<'r> {
     #[inline]
-    fn new(record: &'r csv::ByteRecord) -> Self {
+    fn new(record: &'r Record) -> Self {
         let mut fields: [&[u8]; ROW_FIELDS] = [&[]; ROW_FIELDS];
         for (slot, f) in fields.iter_mut().zip(record.iter()) {
             *slot = trimmed(f);
@@ -432,66 +445,26 @@ impl<'r> Row<'r> {
     }
 }
 
-/// The input of a reused csv reader: replaced between files.
-struct Source(Box<dyn Read>);
-
-impl Read for Source {
-    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
-        self.0.read(buf)
-    }
-}
-
-/// Rewinding to the start is how a reused reader is pointed at its next file (the
-/// input itself is swapped just after); no other seek is asked for.
-impl Seek for Source {
-    fn seek(&mut self, pos: SeekFrom) -> std::io::Result<u64> {
-        match pos {
-            SeekFrom::Start(0) => Ok(0),
-            _ => Err(std::io::Error::other("survey input cannot seek")),
-        }
-    }
-}
-
-type CsvReader = csv::Reader<Source>;
-
 thread_local! {
-    /// Csv readers kept for reuse on this thread, one per delimiter. Building a csv
-    /// reader compiles its parser tables, which costs more than reading a survey file of
-    /// a few hundred rows; a fleet reads thousands of files.
-    static READERS: RefCell<Vec<(u8, CsvReader)>> = const { RefCell::new(Vec::new()) };
+    /// Record readers kept for reuse on this thread, one per delimiter. Building a csv
+    /// parser compiles its tables, which costs more than reading a survey file of a
+    /// few hundred rows; a fleet reads thousands of files.
+    static READERS: RefCell<Vec<(u8, Records)>> = const { RefCell::new(Vec::new()) };
 }
 
-/// Runs `f` with a csv reader for `delimiter` reading `input` from its first byte: a
-/// reader of this thread rewound and given the new input (the csv crate's `seek_raw`
-/// resets its parser, line count and end-of-file state), or a new one.
-fn with_reader<T>(delimiter: u8, input: Box<dyn Read>, f: impl FnOnce(&mut CsvReader) -> T) -> T {
+/// Runs `f` with a record reader for `delimiter` reading `input` from its first byte:
+/// one of this thread's, restarted, or a new one.
+fn with_reader<T>(delimiter: u8, input: Box<dyn Read>, f: impl FnOnce(&mut Records) -> T) -> T {
     let cached = READERS.with(|r| {
         let mut r = r.borrow_mut();
         let i = r.iter().position(|(d, _)| *d == delimiter)?;
         Some(r.swap_remove(i).1)
     });
-    let rewound = cached.and_then(|mut reader| {
-        reader
-            .seek_raw(SeekFrom::Start(0), csv::Position::new())
-            .ok()?;
-        Some(reader)
-    });
-    let mut reader = match rewound {
-        Some(mut reader) => {
-            *reader.get_mut() = Source(input);
-            reader
-        }
-        None => csv::ReaderBuilder::new()
-            .has_headers(false)
-            .flexible(true)
-            .delimiter(delimiter)
-            .comment(Some(b'#'))
-            .buffer_capacity(READ_BUFFER)
-            .from_reader(Source(input)),
-    };
+    let mut reader = cached.unwrap_or_else(|| Records::new(delimiter));
+    reader.restart(input);
     let out = f(&mut reader);
     // Let go of the file now; keep the reader.
-    *reader.get_mut() = Source(Box::new(std::io::empty()));
+    reader.release();
     READERS.with(|r| r.borrow_mut().push((delimiter, reader)));
     out
 }
@@ -518,22 +491,22 @@ pub fn read_survey<R: Read + 'static>(
 
 fn read_rows(
     path: &str,
-    reader: &mut CsvReader,
+    reader: &mut Records,
     delimiter: u8,
     file_index: u32,
     ctx: &SurveyContext,
     points: &mut PointNames,
     sink: &mut impl ReadingSink,
 ) -> Result<SurveyFileInfo, InputError> {
-    let mut record = csv::ByteRecord::new();
+    let mut record = Record::default();
     let at = |line: u64| Location::line(path, line);
-    let read = |reader: &mut CsvReader, record: &mut csv::ByteRecord| {
+    let read = |reader: &mut Records, record: &mut Record| {
         next_record(reader, record).map_err(|e| read_error(path, e))
     };
     if !read(reader, &mut record)? {
         return Err(InputError::new(at(1), InputErrorKind::EmptyFile));
     }
-    let header_line = record.position().map_or(1, csv::Position::line);
+    let header_line = record.line();
     single_lines(path, header_line, &record, None)?;
     let cols = header(path, header_line, &record)?;
     let mut row_parser = RowParser {
@@ -548,7 +521,7 @@ fn read_rows(
     let mut rows = 0usize;
     let mut thin = ThinCheck::default();
     while read(reader, &mut record)? {
-        let line = record.position().map_or(0, csv::Position::line);
+        let line = record.line();
         // The common row at once; anything else checked step by step, each problem
         // with its message.
         let reading = match row_parser.quick(&record, points) {
@@ -583,9 +556,9 @@ fn read_rows(
 /// The next record that holds something, or false at the end of the file. A row of
 /// empty fields (a blank line, or ",,," from a spreadsheet) holds no reading: skipped.
 #[inline(always)]
-fn next_record(reader: &mut CsvReader, record: &mut csv::ByteRecord) -> csv::Result<bool> {
+fn next_record(reader: &mut Records, record: &mut Record) -> std::io::Result<bool> {
     loop {
-        let more = reader.read_byte_record(record)?;
+        let more = reader.read(record)?;
         // (Every field empty after trimming <=> every byte of the record is white
         // space: one pass over the record's bytes.)
         if !more || !record.as_slice().iter().all(u8::is_ascii_whitespace) {
@@ -594,9 +567,10 @@ fn next_record(reader: &mut CsvReader, record: &mut csv::ByteRecord) -> csv::Res
     }
 }
 
-/// The message for a record the csv reader could not read.
+/// The message for a record that could not be read (the file could not be read, or
+/// held a byte that is not UTF-8).
 #[cold]
-fn read_error(path: &str, e: csv::Error) -> InputError {
+fn read_error(path: &str, e: std::io::Error) -> InputError {
     if let Some(bad) = bad_byte_of(&e) {
         return InputError::new(
             Location {
@@ -610,9 +584,10 @@ fn read_error(path: &str, e: csv::Error) -> InputError {
             },
         );
     }
-    let line = e.position().map_or(1, |p| p.line());
+    // (Where in the file a read failed is not known: its first line, as the csv
+    // crate gave it.)
     InputError::new(
-        Location::line(path, line),
+        Location::line(path, 1),
         InputErrorKind::Io(std::io::Error::other(e.to_string())),
     )
 }
@@ -622,7 +597,7 @@ fn read_error(path: &str, e: csv::Error) -> InputError {
 fn whole_row_checks(
     path: &str,
     line: u64,
-    record: &csv::ByteRecord,
+    record: &Record,
     cols: &Columns,
     delimiter: u8,
 ) -> Result<(), InputError> {
@@ -727,9 +702,10 @@ impl ThinCheck {
 }
 
 /// True when `bytes` holds a byte below 0x0E (tab, line feed, carriage return and
-/// the control characters before them), looked at eight bytes at a time: for a word x,
+/// the control characters before them), looked at eight (or four) bytes at a time: for a word x,
 /// (x - 0x0E0E..) & !x & 0x8080.. is non-zero exactly when a byte of x is below 0x0E
 /// ("hasless(x, n)", S. E. Anderson, Bit Twiddling Hacks, for n <= 128).
+#[inline]
 fn has_control_byte(bytes: &[u8]) -> bool {
     const LOW: u64 = u64::from_ne_bytes([0x0E; 8]);
     const HIGH: u64 = u64::from_ne_bytes([0x80; 8]);
@@ -738,7 +714,19 @@ fn has_control_byte(bytes: &[u8]) -> bool {
         x.wrapping_sub(LOW) & !x & HIGH
     };
     let Some(last) = bytes.last_chunk::<8>() else {
-        return bytes.iter().any(|&b| b < 0x0E);
+        // (Four to seven bytes: the first four and the last four, as two words.)
+        return match (bytes.first_chunk::<4>(), bytes.last_chunk::<4>()) {
+            (Some(a), Some(z)) => {
+                const LOW4: u32 = u32::from_ne_bytes([0x0E; 4]);
+                const HIGH4: u32 = u32::from_ne_bytes([0x80; 4]);
+                let test4 = |x: &[u8; 4]| {
+                    let x = u32::from_ne_bytes(*x);
+                    x.wrapping_sub(LOW4) & !x & HIGH4
+                };
+                test4(a) | test4(z) != 0
+            }
+            _ => bytes.iter().any(|&b| b < 0x0E),
+        };
     };
     // Whole words, then the last eight bytes (overlapping the words when the length is
     // not a multiple of eight).
@@ -746,17 +734,11 @@ fn has_control_byte(bytes: &[u8]) -> bool {
     words.iter().fold(test(last), |hit, w| hit | test(w)) != 0
 }
 
-/// True when `text` starts or ends with ASCII white space.
+/// True when `text` has white space at either end.
 #[inline]
 fn padded(text: &[u8]) -> bool {
     text.first().is_some_and(u8::is_ascii_whitespace)
         || text.last().is_some_and(u8::is_ascii_whitespace)
-}
-
-/// True when `text` holds a line feed or a carriage return.
-#[inline]
-fn has_line_break(text: &[u8]) -> bool {
-    text.iter().any(|&b| b == b'\n' || b == b'\r')
 }
 
 /// Refuses a record with a line break inside a value: in a survey file that is a quote
@@ -765,7 +747,7 @@ fn has_line_break(text: &[u8]) -> bool {
 fn single_lines(
     path: &str,
     line: u64,
-    record: &csv::ByteRecord,
+    record: &Record,
     names: Option<&[String]>,
 ) -> Result<(), InputError> {
     // Nearly every record has no control character at all, so no line break: one
@@ -784,7 +766,7 @@ fn single_lines(
 fn line_breaks(
     path: &str,
     line: u64,
-    record: &csv::ByteRecord,
+    record: &Record,
     names: Option<&[String]>,
 ) -> Result<(), InputError> {
     for (i, field) in record.iter().enumerate() {
@@ -805,7 +787,7 @@ fn line_breaks(
     Ok(())
 }
 
-fn header(path: &str, line: u64, record: &csv::ByteRecord) -> Result<Columns, InputError> {
+fn header(path: &str, line: u64, record: &Record) -> Result<Columns, InputError> {
     let at = || Location::line(path, line);
     let mut seen: Vec<(Field, usize, String)> = Vec::new();
     let mut names = Vec::with_capacity(record.len());
@@ -1139,18 +1121,14 @@ impl RowParser<'_> {
     /// names, nothing under an unnamed column, every value in its plain form (the date
     /// as the row before, one or two digits for the course, plain decimals, a point id
     /// no longer than allowed and a note, neither with white space around it nor a
-    /// line break in it) and within its bounds. None for anything else, which the
+    /// byte below 0x0E, a line break among them, in it) and within its bounds. None for anything else, which the
     /// whole-row checks and [`Self::full`] then read, with their messages: the two
     /// agree on every row this accepts (the same conversions, the same checks). The
     /// point is looked up last, so a row this leaves has given no point a key; the
     /// only thing kept from such a row is its elevation, read and checked in full,
     /// for the next row.
     #[inline(always)]
-    fn quick<'r>(
-        &mut self,
-        record: &'r csv::ByteRecord,
-        points: &mut PointNames,
-    ) -> Option<QuickRow<'r>> {
+    fn quick<'r>(&mut self, record: &'r Record, points: &mut PointNames) -> Option<QuickRow<'r>> {
         let ctx = self.ctx;
         let cols = self.cols;
         // The fields, taken in one pass over the record by what their column holds.
@@ -1160,7 +1138,11 @@ impl RowParser<'_> {
         let mut text: [&[u8]; 7] = [&[]; 7];
         // (White space around a value is left to the full reader: the date, course and
         // numbers below take none, and the point and note are looked at for it.)
-        for (field, role) in record.iter().zip(&self.roles) {
+        let (bytes, ends) = record.parts();
+        let mut start = 0;
+        for (&end, role) in ends.iter().zip(&self.roles) {
+            let field = bytes.get(start..end)?;
+            start = end;
             match role {
                 Some(slot) => text[*slot as usize] = field,
                 None if field.is_empty() => {}
@@ -1241,12 +1223,12 @@ impl RowParser<'_> {
         // a minus sign, or the cached date's text.)
         let note = match note_text {
             [] => None,
-            text if has_line_break(text) || padded(text) => return None,
+            text if has_control_byte(text) || padded(text) => return None,
             text => Some(std::str::from_utf8(text).ok()?),
         };
         let point = match point_text {
             [] => None,
-            raw if has_line_break(raw) || padded(raw) => return None,
+            raw if has_control_byte(raw) || padded(raw) => return None,
             // (A text of at most that many bytes has at most that many characters.)
             raw if raw.len() <= MAX_POINT_CHARS => Some(points.key_of_bytes(raw).ok()?),
             _ => return None,
@@ -1763,7 +1745,7 @@ mod tests {
 
         /// Reads `rows` with both paths; returns how many the quick path took.
         fn compare(ctx: &SurveyContext, names: &[&str], rows: &[Vec<&str>]) -> usize {
-            let head = csv::ByteRecord::from(names.to_vec());
+            let head = Record::from_fields(names);
             let cols = super::super::header("f.csv", 1, &head).unwrap();
             let mut parser = RowParser {
                 path: "f.csv",
@@ -1779,12 +1761,11 @@ mod tests {
             let mut names = PointNames::default();
             let mut taken = 0;
             for (n, row) in rows.iter().enumerate() {
-                let record = csv::ByteRecord::from(row.clone());
+                let record = Record::from_fields(row);
                 // A row with a field too many or too few is never taken.
-                let mut longer = record.clone();
-                longer.push_field(b"");
+                let longer = record.with_field(b"");
                 assert!(parser.quick(&longer, &mut names.clone()).is_none());
-                let shorter: csv::ByteRecord = record.iter().skip(1).collect();
+                let shorter = Record::from_fields(&row[1..]);
                 assert!(parser.quick(&shorter, &mut names.clone()).is_none());
                 let before = names.len();
                 let mut quick_names = names.clone();
