@@ -789,7 +789,8 @@ fn line_breaks(
 
 fn header(path: &str, line: u64, record: &Record) -> Result<Columns, InputError> {
     let at = || Location::line(path, line);
-    let mut seen: Vec<(Field, usize, String)> = Vec::new();
+    // (Each known column with its place; its name is names[place].)
+    let mut seen: Vec<(Field, usize)> = Vec::with_capacity(record.len());
     let mut names = Vec::with_capacity(record.len());
     let mut unnamed = Vec::new();
     for (i, raw) in record.iter().enumerate() {
@@ -808,7 +809,11 @@ fn header(path: &str, line: u64, record: &Record) -> Result<Columns, InputError>
             unnamed.push(i);
             continue;
         }
-        let lower = name.to_ascii_lowercase();
+        let lower: std::borrow::Cow<str> = if name.bytes().any(|b| b.is_ascii_uppercase()) {
+            name.to_ascii_lowercase().into()
+        } else {
+            name.into()
+        };
         let Some(field) = Field::parse(&lower) else {
             return Err(InputError::new(
                 at(),
@@ -819,36 +824,29 @@ fn header(path: &str, line: u64, record: &Record) -> Result<Columns, InputError>
                 },
             ));
         };
-        if let Some((_, first, first_name)) = seen.iter().find(|(f, _, _)| *f == field) {
+        if let Some(&(_, first)) = seen.iter().find(|(f, _)| *f == field) {
             return Err(InputError::new(
                 at(),
                 InputErrorKind::DuplicateColumn {
-                    column: echo(first_name),
+                    column: echo(&names[first]),
                     first: first + 1,
                     second: i + 1,
                 },
             ));
         }
-        if let Some((_, _, first_name)) = seen
-            .iter()
-            .find(|(f, _, _)| f.quantity() == field.quantity())
-        {
+        if let Some(&(_, first)) = seen.iter().find(|(f, _)| f.quantity() == field.quantity()) {
             return Err(InputError::new(
                 at(),
                 InputErrorKind::MixedUnits {
                     quantity: field.quantity(),
-                    first: echo(first_name),
+                    first: echo(&names[first]),
                     second: echo(name),
                 },
             ));
         }
-        seen.push((field, i, name.to_string()));
+        seen.push((field, i));
     }
-    let find = |want: fn(Field) -> bool| {
-        seen.iter()
-            .find(|(f, _, _)| want(*f))
-            .map(|(f, i, _)| (*f, *i))
-    };
+    let find = |want: fn(Field) -> bool| seen.iter().find(|(f, _)| want(*f)).copied();
     let missing = |column: &'static str| {
         InputError::new(
             at(),
