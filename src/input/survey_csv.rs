@@ -22,13 +22,13 @@
 //! a [`ReadingSink`] at once; memory does not grow with the number of rows.
 
 use std::cell::RefCell;
-use std::io::{BufRead, BufReader, Read};
+use std::io::Read;
 
 use chrono::{Datelike, NaiveDate};
 
 use super::error::{InputError, InputErrorKind, Location, echo, nearest, number_text};
 use super::limits::{ALL_THIN_FACTOR, EARLIEST_SURVEY_YEAR, MAX_POINT_CHARS};
-use super::records::{Record, Records};
+use super::records::{Record, Records, bad_byte_of};
 use crate::calc::constants::UNIT_MISTAKE_FACTOR;
 use crate::calc::units::{Length, Thickness, UnitSystem};
 use crate::model::reading::{
@@ -166,8 +166,7 @@ impl Columns {
     }
 }
 
-/// The UTF-8 byte-order mark some spreadsheet programs write.
-pub const BOM: &[u8] = b"\xEF\xBB\xBF";
+pub use super::records::BOM;
 
 /// The delimiter of the first non-blank, non-comment line: the most frequent of
 /// `,` `;` and tab (`,` on a tie or when there is none).
@@ -255,149 +254,6 @@ fn plain_decimal(b: &[u8]) -> Option<f64> {
     Some(if negative { -v } else { v })
 }
 
-/// Reads the start of `input` up to and including the first line that is neither
-/// blank nor a comment (the line the delimiter is detected from), without the
-/// byte-order mark. Returns those bytes and the rest of the input.
-fn sniff<R: Read>(input: R) -> std::io::Result<(Vec<u8>, BufReader<R>)> {
-    let mut rest = BufReader::with_capacity(8 * 1024, input);
-    let mut prefix = Vec::new();
-    loop {
-        let start = prefix.len();
-        if rest.read_until(b'\n', &mut prefix)? == 0 {
-            break;
-        }
-        if start == 0 && prefix.starts_with(BOM) {
-            prefix.drain(..BOM.len());
-        }
-        let line = &prefix[start..];
-        let line = line.strip_suffix(b"\n").unwrap_or(line);
-        let line = line.strip_suffix(b"\r").unwrap_or(line);
-        if !line.iter().all(u8::is_ascii_whitespace) && !line.starts_with(b"#") {
-            break;
-        }
-    }
-    Ok((prefix, rest))
-}
-
-/// Where the first byte that is not UTF-8 sits in a file.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub struct BadByte {
-    /// 1-based line.
-    pub line: u64,
-    /// 1-based column, in characters.
-    pub column: u64,
-    /// The byte.
-    pub byte: u8,
-}
-
-impl std::fmt::Display for BadByte {
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        write!(
-            f,
-            "byte 0x{:02X} at {}:{} is not UTF-8",
-            self.byte, self.line, self.column
-        )
-    }
-}
-
-impl std::error::Error for BadByte {}
-
-/// Checks that everything read through it is UTF-8, as it streams past, so that a bad
-/// byte anywhere in a file (a comment line included) is refused with its line and
-/// column. Per buffer: one validation (std, vectorised), one newline count (memchr) and
-/// a character count of the text after the last newline; a character split between
-/// two buffers is carried over.
-struct Utf8Guard<R> {
-    inner: R,
-    /// Bytes of a character begun at the end of the last buffer.
-    pending: Vec<u8>,
-    /// Line of the next byte (1-based).
-    line: u64,
-    /// Characters since the last newline.
-    column: u64,
-}
-
-impl<R: Read> Utf8Guard<R> {
-    fn new(inner: R) -> Self {
-        Utf8Guard {
-            inner,
-            pending: Vec::new(),
-            line: 1,
-            column: 0,
-        }
-    }
-
-    /// Counts lines and columns over valid text.
-    fn advance(&mut self, text: &[u8]) {
-        let newlines = memchr::memchr_iter(b'\n', text).count() as u64;
-        let tail = match memchr::memrchr(b'\n', text) {
-            Some(i) => {
-                self.line += newlines;
-                self.column = 0;
-                &text[i + 1..]
-            }
-            None => text,
-        };
-        self.column += tail.iter().filter(|&&b| (b & 0xC0) != 0x80).count() as u64;
-    }
-
-    fn bad(&self, byte: u8) -> std::io::Error {
-        std::io::Error::new(
-            std::io::ErrorKind::InvalidData,
-            BadByte {
-                line: self.line,
-                column: self.column + 1,
-                byte,
-            },
-        )
-    }
-}
-
-/// The bad byte behind a read error, if that is what it is.
-fn bad_byte_of(e: &std::io::Error) -> Option<BadByte> {
-    e.get_ref()?.downcast_ref::<BadByte>().copied()
-}
-
-impl<R: Read> Read for Utf8Guard<R> {
-    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
-        let n = self.inner.read(buf)?;
-        if n == 0 {
-            return match self.pending.first() {
-                Some(&b) => Err(self.bad(b)),
-                None => Ok(0),
-            };
-        }
-        let joined;
-        let data: &[u8] = if self.pending.is_empty() {
-            &buf[..n]
-        } else {
-            let mut v = std::mem::take(&mut self.pending);
-            v.extend_from_slice(&buf[..n]);
-            joined = v;
-            &joined
-        };
-        // (simdutf8's check, many bytes at a time, for the usual valid buffer; the
-        // standard library's only to find where a bad one goes wrong.)
-        if simdutf8::basic::from_utf8(data).is_ok() {
-            self.advance(data);
-            return Ok(n);
-        }
-        match std::str::from_utf8(data) {
-            Ok(_) => self.advance(data),
-            Err(e) => {
-                let (valid, rest) = data.split_at(e.valid_up_to());
-                self.advance(valid);
-                if e.error_len().is_some() {
-                    return Err(self.bad(rest[0]));
-                }
-                // A character begun at the end of the buffer: finished by the next one.
-                self.pending = rest.to_vec();
-            }
-        }
-        Ok(n)
-    }
-}
-
 /// A field of a record without surrounding ASCII white space (the csv crate's
 /// `Trim::All` does the same, but copies every record to do it).
 #[inline]
@@ -446,26 +302,18 @@ impl<'r> Row<'r> {
 }
 
 thread_local! {
-    /// Record readers kept for reuse on this thread, one per delimiter. Building a csv
-    /// parser compiles its tables, which costs more than reading a survey file of a
-    /// few hundred rows; a fleet reads thousands of files.
-    static READERS: RefCell<Vec<(u8, Records)>> = const { RefCell::new(Vec::new()) };
+    /// The record reader of this thread, kept for the next file (its buffer and
+    /// parsers are made once).
+    static RECORDS: RefCell<Option<Records>> = const { RefCell::new(None) };
 }
 
-/// Runs `f` with a record reader for `delimiter` reading `input` from its first byte:
-/// one of this thread's, restarted, or a new one.
-fn with_reader<T>(delimiter: u8, input: Box<dyn Read>, f: impl FnOnce(&mut Records) -> T) -> T {
-    let cached = READERS.with(|r| {
-        let mut r = r.borrow_mut();
-        let i = r.iter().position(|(d, _)| *d == delimiter)?;
-        Some(r.swap_remove(i).1)
-    });
-    let mut reader = cached.unwrap_or_else(|| Records::new(delimiter));
-    reader.restart(input);
-    let out = f(&mut reader);
+/// Runs `f` with this thread's record reader (or a new one when it is in use).
+fn with_records<T>(f: impl FnOnce(&mut Records) -> T) -> T {
+    let mut records = RECORDS.with(|r| r.borrow_mut().take()).unwrap_or_default();
+    let out = f(&mut records);
     // Let go of the file now; keep the reader.
-    reader.release();
-    READERS.with(|r| r.borrow_mut().push((delimiter, reader)));
+    records.release();
+    RECORDS.with(|r| *r.borrow_mut() = Some(records));
     out
 }
 
@@ -480,11 +328,15 @@ pub fn read_survey<R: Read + 'static>(
     points: &mut PointNames,
     sink: &mut impl ReadingSink,
 ) -> Result<SurveyFileInfo, InputError> {
-    let (prefix, rest) =
-        sniff(input).map_err(|e| InputError::new(Location::file(path), InputErrorKind::Io(e)))?;
-    let delimiter = detect_delimiter(&prefix);
-    let input = Box::new(Utf8Guard::new(std::io::Cursor::new(prefix).chain(rest)));
-    with_reader(delimiter, input, |reader| {
+    with_records(|reader| {
+        let head = reader
+            .open(Box::new(input))
+            .map_err(|e| match bad_byte_of(&e) {
+                Some(_) => read_error(path, e),
+                None => InputError::new(Location::file(path), InputErrorKind::Io(e)),
+            })?;
+        let delimiter = detect_delimiter(head);
+        reader.records(delimiter);
         read_rows(path, reader, delimiter, file_index, ctx, points, sink)
     })
 }
