@@ -1474,6 +1474,15 @@ mod tests {
             "1 ",
             // Once found by the proptest below (kept here rather than in a regressions file).
             "20000.000000000000000",
+            // Each place of the point, two points, none.
+            ".1234567",
+            "1.234567",
+            "123456.7",
+            "1234567.",
+            "-9.05",
+            "..5",
+            "1..",
+            "00000000",
         ] {
             agrees(t);
         }
