@@ -14,7 +14,8 @@
 #   4. the pandas script (benches/fleet_pandas.py) once on the 4M fleet, and its table
 #      compared with strake's;
 #   5. one sample tank with its whole report (`assess kestrel-t12 --out`), RUNS times.
-# Medians are printed. Needs: cargo, /usr/bin/time (Debian package `time`), python3 with
+# Medians are printed, and the fastest run of each against the other's (the run least
+# disturbed by whatever else the machine is doing). Needs: cargo, /usr/bin/time (Debian package `time`), python3 with
 # pandas (pip install pandas); valgrind is optional. Timings are never asserted
 # anywhere: this only measures.
 #
@@ -77,8 +78,11 @@ for size in 4m 16m; do
     echo "  $threads thread(s):"
     echo "    (a) floor:  wall $fw s, cpu $fc s, peak $((fm / 1024)) MB"
     echo "    (b) strake: wall $sw s, cpu $sc s, peak $((sm / 1024)) MB"
+    fmin=$(cut -d' ' -f1 "$WORK/floor.txt" | sort -n | head -1)
+    smin=$(cut -d' ' -f1 "$WORK/strake.txt" | sort -n | head -1)
     awk -v a="$fw" -v b="$sw" -v c="$fc" -v d="$sc" -v r="$(median < "$WORK/ratio.txt")" \
-      'BEGIN { printf "    b/a: %.2f wall, %.2f cpu (median of the runs side by side: %.2f)\n", b / a, d / c, r }'
+      -v fm="$fmin" -v sm="$smin" \
+      'BEGIN { printf "    b/a: %.2f wall, %.2f cpu (median of the runs side by side: %.2f; fastest against fastest: %.2f)\n", b / a, d / c, r, sm / fm }'
   done
 done
 

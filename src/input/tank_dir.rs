@@ -207,8 +207,10 @@ fn csv_files(dir: &Path, sub: &str) -> Result<(Vec<PathBuf>, Vec<PathBuf>), Inpu
             skipped.push(path);
         }
     }
-    files.sort();
-    skipped.sort();
+    // (All in one folder: the order of their names, byte by byte, which is the order
+    // of the paths, found without comparing the paths component by component.)
+    files.sort_unstable_by(|a, b| a.as_os_str().cmp(b.as_os_str()));
+    skipped.sort_unstable_by(|a, b| a.as_os_str().cmp(b.as_os_str()));
     Ok((files, skipped))
 }
 
