@@ -15,9 +15,9 @@
 #      compared with strake's;
 #   5. one sample tank with its whole report (`assess kestrel-t12 --out`), RUNS times.
 # Medians are printed, and the fastest run of each against the other's (the run least
-# disturbed by whatever else the machine is doing). Needs: cargo, /usr/bin/time (Debian package `time`), python3 with
-# pandas (pip install pandas); valgrind is optional. Timings are never asserted
-# anywhere: this only measures.
+# disturbed by whatever else the machine is doing). Needs: cargo, /usr/bin/time (Debian
+# package `time`), python3 with pandas (pip install pandas); valgrind is optional.
+# Timings are never asserted anywhere: this only measures.
 #
 # Usage: benches/run.sh [WORK_DIR] (default /tmp/strake-bench; about 1 GB of files)
 set -euo pipefail
