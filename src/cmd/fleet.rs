@@ -6,9 +6,12 @@
 //! lines are then put in planning order (calc::fleet), which does not depend on the
 //! order the workers finished in: the output is the same on every run.
 //!
-//! With `--out`, each worker also writes its tank's report folder (the files of
-//! `assess --out`) before dropping the tank, so memory stays that of one report per
-//! worker; the fleet page is written last, from the ordered lines.
+//! Without `--out`, each tank is assessed as soon as the search finds it (the search
+//! and the tanks share the workers). With `--out`, the search ends first (every report
+//! folder is named from all the tank ids), and each worker also writes its tank's
+//! report folder (the files of `assess --out`) before dropping the tank, so memory
+//! stays that of one report per worker; the fleet page is written last, from the
+//! ordered lines.
 
 use std::io::{IsTerminal, Write as _};
 use std::path::{Path, PathBuf};
@@ -163,13 +166,21 @@ fn assess_while_searching(
 ) -> Result<Vec<FleetEntry>, Error> {
     let search = walk_tank_dirs(root)?;
     // (Its length grows as tanks are found.)
+    // (The search stays just ahead of the workers, which take the tanks as it finds
+    // them, so the number of tanks is known only at the end: the tanks assessed and
+    // those found so far, no bar.)
     let bar = progress_bar(0, quiet);
+    set_template(&bar, "{pos} tanks assessed, {len} found so far, {elapsed}");
     let mut entries: Vec<(bool, usize, FleetEntry)> = search
+        .inspect(|found| {
+            if matches!(found, Found::Tank(_)) {
+                bar.inc_length(1);
+            }
+        })
         .enumerate()
         .par_bridge()
         .map(|(i, found)| match found {
             Found::Tank(dir) => {
-                bar.inc_length(1);
                 let entry = assess_entry(&dir, today, None);
                 bar.inc(1);
                 (false, i, entry)
@@ -284,10 +295,16 @@ fn progress_bar(len: u64, quiet: bool) -> ProgressBar {
         return ProgressBar::hidden();
     }
     let bar = ProgressBar::with_draw_target(Some(len), ProgressDrawTarget::stderr());
-    if let Ok(style) =
-        ProgressStyle::with_template("{bar:40} {pos}/{len} tanks assessed, {elapsed} ({eta} left)")
-    {
+    set_template(
+        &bar,
+        "{bar:40} {pos}/{len} tanks assessed, {elapsed} ({eta} left)",
+    );
+    bar
+}
+
+/// Shows `bar` with `template` (as it was if the template does not parse).
+fn set_template(bar: &ProgressBar, template: &str) {
+    if let Ok(style) = ProgressStyle::with_template(template) {
         bar.set_style(style);
     }
-    bar
 }
