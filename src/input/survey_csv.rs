@@ -6,7 +6,8 @@
 //!   decimal comma is accepted. A UTF-8 byte-order mark and CRLF line ends are
 //!   tolerated; lines starting with `#` are comments; blank lines and rows of empty
 //!   fields (",,," from a spreadsheet) hold no reading and are skipped.
-//! - The whole file must be UTF-8 (checked first, so the message gives the line and
+//! - The whole file must be UTF-8 (checked as it is read, the first line before the
+//!   header is read and each buffer before its rows, so the message gives the line and
 //!   column of the first bad byte). A value with a line break in it is refused: in a
 //!   survey it is a quote left open, which would swallow the rows after it.
 //! - A header column without a name is allowed while its cells are empty.
@@ -15,11 +16,12 @@
 //! - Every row is either handed on or refused with its line, column and value; values
 //!   echoed in messages are shortened and escaped ([`echo`]).
 //!
-//! The csv crate does the CSV; this module only decides what each field means.
+//! csv-core, the csv crate's parser, splits the rows (through [`super::records`]); this
+//! module only decides what each field means.
 //!
 //! Streaming: the file is read through a buffer and each row is parsed in place
-//! (fields stay in the csv crate's record, nothing is allocated per row) and handed to
-//! a [`ReadingSink`] at once; memory does not grow with the number of rows.
+//! (fields stay in the record reader's buffers, nothing is allocated per row) and
+//! handed to a [`ReadingSink`] at once; memory does not grow with the number of rows.
 
 use std::cell::RefCell;
 use std::io::Read;
