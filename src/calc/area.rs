@@ -66,7 +66,7 @@ pub struct AveragingLength {
     pub value: Thickness,
 }
 
-/// L = 3.7 sqrt(D[ft] t2[in]) <= 40 in (USC), L = 1.068 sqrt(D[mm] t2[mm]) <= 1000 mm
+/// `L = 3.7 sqrt(D[ft] t2[in]) <= 40 in` (USC), `L = 1.068 sqrt(D[mm] t2[mm]) <= 1000 mm`
 /// (SI) (API 653 4.3.2.1, from memory; methods.md s.5).
 pub fn averaging_length(units: UnitSystem, diameter: Length, t2: Thickness) -> AveragingLength {
     let form = LocalAreaForm::of(units);

@@ -11,10 +11,10 @@ use super::units::{Length, Rate, Stress, Thickness, UnitSystem};
 // One-foot relation (methods.md s.1 and s.3; API 653 4.3.3.1, API 650 5.6.3.2)
 // ---------------------------------------------------------------------------------
 
-/// SI coefficient of t[mm] = 4.9 D[m] (H[m] - 0.3) G / S[MPa]: rho_w g / 2 with
+/// SI coefficient of `t[mm] = 4.9 D[m] (H[m] - 0.3) G / S[MPa]`: rho_w g / 2 with
 /// rho_w = 1000 kg/m3, g = 9.81 m/s2 and m -> mm (API 653 4.3.3.1, SI form).
 pub const ONE_FOOT_COEFFICIENT_SI: f64 = 4.9;
-/// USC coefficient of t[in] = 2.6 D[ft] (H[ft] - 1) G / S[psi]: rho_w g / 2 with
+/// USC coefficient of `t[in] = 2.6 D[ft] (H[ft] - 1) G / S[psi]`: rho_w g / 2 with
 /// rho_w = 1.94 slug/ft3, g = 32.2 ft/s2 and ft -> in (API 653 4.3.3.1).
 pub const ONE_FOOT_COEFFICIENT_USC: f64 = 2.6;
 /// Height above the bottom of a course at which its hoop stress is taken, m

@@ -3,12 +3,12 @@
 //! Source: API 650 5.6.4 (from memory; methods.md s.7; every step checked against a
 //! hand calculation in the tests below).
 //!
-//! SI form (USC in brackets). D diameter (m [ft]); H design liquid level above the
-//! bottom of the course considered (m [ft]); G specific gravity; S stress (MPa [psi]);
-//! thicknesses t (mm [in]) exclude the corrosion allowance CA unless said; r nominal
-//! radius (mm [in]) = 500 D [6 D]; h1 bottom course height (mm [in]).
+//! SI form (USC in brackets). D diameter (m \[ft\]); H design liquid level above the
+//! bottom of the course considered (m \[ft\]); G specific gravity; S stress (MPa \[psi\]);
+//! thicknesses t (mm \[in\]) exclude the corrosion allowance CA unless said; r nominal
+//! radius (mm \[in\]) = 500 D \[6 D\]; h1 bottom course height (mm \[in\]).
 //!
-//! - Applicability: L / H <= 1000/6 [2], L = (500 D t)^0.5 [(6 D t)^0.5], t the
+//! - Applicability: L / H <= 1000/6 \[2\], L = (500 D t)^0.5 \[(6 D t)^0.5\], t the
 //!   bottom-course thickness without CA, H the design liquid level.
 //! - Bottom course: t1 = (1.06 - 0.0696 D/H sqrt(H G / S)) (4.9 H D G / S)
 //!   [(1.06 - 0.463 D/H sqrt(H G / S)) (2.6 H D G / S)], not more than the one-foot t

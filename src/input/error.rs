@@ -335,7 +335,7 @@ pub enum InputErrorKind {
         /// What was expected there.
         expected: String,
     },
-    /// A tank key written inside a table, below a [table] header.
+    /// A tank key written inside a table, below a `[table]` header.
     #[error(
         "key \"{key}\" is inside {table}, where it does not belong: the tank's keys go above \
          the first [table] or [[course]] header (expected {expected})"

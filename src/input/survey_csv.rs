@@ -16,7 +16,7 @@
 //! - Every row is either handed on or refused with its line, column and value; values
 //!   echoed in messages are shortened and escaped ([`echo`]).
 //!
-//! csv-core, the csv crate's parser, splits the rows (through [`super::records`]); this
+//! csv-core, the csv crate's parser, splits the rows (through `input::records`); this
 //! module only decides what each field means.
 //!
 //! Streaming: the file is read through a buffer and each row is parsed in place

@@ -1,6 +1,6 @@
 //! The fleet report folder of `strake fleet DIR --out [OUTDIR]`: the fleet page
 //! (`index.html`) and its two PNG charts in OUTDIR, and each assessed tank's own report
-//! folder (as `assess --out` writes it) in OUTDIR/<folder name>/. Every file is
+//! folder (as `assess --out` writes it) in `OUTDIR/<folder name>/`. Every file is
 //! written atomically; the same input gives the same bytes.
 
 use std::collections::HashSet;

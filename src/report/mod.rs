@@ -1,5 +1,5 @@
 //! Outputs: each module renders bytes from the one result model; nothing here
-//! computes an engineering value. [`write`] decides stdout versus file.
+//! computes an engineering value. [`write`](mod@write) decides stdout versus file.
 
 pub mod caution;
 pub mod chart;
